@@ -1,0 +1,347 @@
+//! Reading ligand sets from TOML and checking them, with errors that name file, line, column
+//! and ligand key.
+
+use std::fmt;
+use std::ops::Range;
+
+use serde::Deserialize;
+use toml::Spanned;
+
+use crate::chem::ligand::{BindingMode, CbcClass, FieldClass, LigandDef, Sourced};
+
+/// A problem in a ligand set: where it is and what to do.
+#[derive(Debug, Clone, PartialEq)]
+pub struct SetError {
+    pub file: String,
+    pub line: usize,
+    pub column: usize,
+    pub key: Option<String>,
+    pub message: String,
+}
+
+impl fmt::Display for SetError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        write!(f, "{}:{}:{}: ", self.file, self.line, self.column)?;
+        if let Some(k) = &self.key {
+            write!(f, "ligand '{k}': ")?;
+        }
+        write!(f, "{}", self.message)
+    }
+}
+
+#[derive(Deserialize)]
+#[serde(deny_unknown_fields)]
+struct RawSet {
+    #[serde(default)]
+    #[allow(dead_code)]
+    set: Option<String>,
+    #[serde(default)]
+    ligand: Vec<Spanned<RawLigand>>,
+}
+
+#[derive(Deserialize)]
+#[serde(deny_unknown_fields)]
+struct RawLigand {
+    key: Spanned<String>,
+    name: String,
+    formula: String,
+    #[serde(default)]
+    aliases: Vec<String>,
+    family: String,
+    #[serde(default)]
+    field: Option<FieldClass>,
+    #[serde(default)]
+    pi_donor: bool,
+    #[serde(default)]
+    cone_angle: Option<f64>,
+    #[serde(default)]
+    cone_angle_source: Option<String>,
+    #[serde(default)]
+    tep: Option<f64>,
+    #[serde(default)]
+    tep_source: Option<String>,
+    #[serde(default)]
+    hazards: Vec<String>,
+    #[serde(default)]
+    hazard_source: Option<String>,
+    #[serde(default)]
+    notes: Option<String>,
+    #[serde(default)]
+    mode: Vec<Spanned<RawMode>>,
+}
+
+#[derive(Deserialize)]
+#[serde(deny_unknown_fields)]
+struct RawMode {
+    label: String,
+    class: Spanned<String>,
+    #[serde(default)]
+    donors: Option<u8>,
+    #[serde(default)]
+    sites: Option<u8>,
+    #[serde(default)]
+    bridges: Option<u8>,
+    #[serde(default)]
+    ionic_charge: Option<i8>,
+    #[serde(default)]
+    three_centre: bool,
+    #[serde(default)]
+    note: Option<String>,
+}
+
+/// The families a ligand may belong to; see DEVELOPERS.md.
+pub const FAMILIES: &[&str] = &[
+    "hydride",
+    "halide",
+    "pseudohalide",
+    "alkyl",
+    "aryl",
+    "acyl",
+    "silyl",
+    "boryl",
+    "alkoxide",
+    "amide",
+    "thiolate",
+    "carbonyl",
+    "nitrosyl",
+    "small-molecule",
+    "isocyanide",
+    "phosphine",
+    "phosphite",
+    "arsine",
+    "diphosphine",
+    "amine",
+    "diamine",
+    "pyridine",
+    "diimine",
+    "nitrile",
+    "ether",
+    "water",
+    "thioether",
+    "alkene",
+    "alkyne",
+    "diene",
+    "allyl",
+    "cyclopentadienyl",
+    "arene",
+    "polyene",
+    "carboxylate",
+    "diketonate",
+    "carbene",
+    "alkylidene",
+    "alkylidyne",
+    "oxo",
+    "imido",
+    "nitrido",
+    "peroxo",
+    "macrocycle",
+    "scorpionate",
+    "pincer",
+    "lewis-acid",
+    "other",
+];
+
+/// Parse one set. A syntax error rejects the file; a bad ligand is skipped and reported while
+/// the rest of the file loads.
+pub fn parse_set(file: &str, text: &str, origin: &str) -> (Vec<LigandDef>, Vec<SetError>) {
+    let at = |span: Option<Range<usize>>, key: Option<String>, message: String| {
+        let (line, column) = line_col(text, span.map_or(0, |s| s.start));
+        SetError {
+            file: file.to_string(),
+            line,
+            column,
+            key,
+            message,
+        }
+    };
+    let raw: RawSet = match toml::from_str(text) {
+        Ok(r) => r,
+        Err(e) => {
+            let msg = e.message().trim().to_string();
+            return (Vec::new(), vec![at(e.span(), None, msg)]);
+        }
+    };
+    let mut ligands = Vec::new();
+    let mut errors = Vec::new();
+    for spanned in raw.ligand {
+        let span = spanned.span();
+        let raw = spanned.into_inner();
+        let key = raw.key.get_ref().clone();
+        match convert(raw, origin) {
+            Ok(l) => ligands.push(l),
+            Err((msg, sub)) => errors.push(at(Some(sub.unwrap_or(span)), Some(key), msg)),
+        }
+    }
+    (ligands, errors)
+}
+
+type Problem = (String, Option<Range<usize>>);
+
+fn convert(raw: RawLigand, origin: &str) -> Result<LigandDef, Problem> {
+    let key_span = raw.key.span();
+    let key = raw.key.into_inner();
+    if key.is_empty() || key.chars().any(char::is_whitespace) {
+        return Err((
+            "the key must be one word with no spaces, as written in formulas".into(),
+            Some(key_span),
+        ));
+    }
+    if !FAMILIES.contains(&raw.family.as_str()) {
+        return Err((
+            format!(
+                "unknown family '{}'; use one of: {}",
+                raw.family,
+                FAMILIES.join(", ")
+            ),
+            Some(key_span),
+        ));
+    }
+    if raw.mode.is_empty() {
+        return Err((
+            "no binding mode: add a [[ligand.mode]] with label and class".into(),
+            Some(key_span),
+        ));
+    }
+    let sourced = |value: Option<f64>, source: Option<String>, what: &str| match (value, source) {
+        (Some(v), Some(s)) if !s.trim().is_empty() => Ok(Some(Sourced {
+            value: v,
+            source: s,
+        })),
+        (Some(_), _) => Err((
+            format!("{what} needs {what}_source (the published work, or \"from memory\")"),
+            Some(key_span.clone()),
+        )),
+        (None, _) => Ok(None),
+    };
+    let cone_angle = sourced(raw.cone_angle, raw.cone_angle_source, "cone_angle")?;
+    if let Some(c) = &cone_angle {
+        if !(30.0..=360.0).contains(&c.value) {
+            return Err((
+                format!("cone_angle {} is outside 30-360 degrees", c.value),
+                Some(key_span),
+            ));
+        }
+    }
+    let tep = sourced(raw.tep, raw.tep_source, "tep")?;
+    if !raw.hazards.is_empty() && raw.hazard_source.as_deref().is_none_or(str::is_empty) {
+        return Err((
+            "hazards need hazard_source (regulation, safety data sheet or \"from memory\")".into(),
+            Some(key_span),
+        ));
+    }
+    let mut modes: Vec<BindingMode> = Vec::new();
+    for m in raw.mode {
+        let span = m.span();
+        let m = m.into_inner();
+        let class = CbcClass::parse(m.class.get_ref())
+            .map_err(|e| (e.to_string(), Some(m.class.span())))?;
+        let mut mode = BindingMode::new(&m.label, class);
+        if modes.iter().any(|x| x.label == mode.label) {
+            return Err((
+                format!("mode label '{}' appears twice", mode.label),
+                Some(span),
+            ));
+        }
+        if let Some(d) = m.donors {
+            mode.donors = d;
+        }
+        if let Some(s) = m.sites {
+            mode.sites = s;
+        }
+        if let Some(b) = m.bridges {
+            mode.bridges = b.max(1);
+        }
+        if let Some(q) = m.ionic_charge {
+            mode.ionic_charge = q;
+        }
+        mode.three_centre = m.three_centre;
+        mode.note = m.note;
+        modes.push(mode);
+    }
+    Ok(LigandDef {
+        key,
+        name: raw.name,
+        formula: raw.formula,
+        aliases: raw.aliases,
+        family: raw.family,
+        field: raw.field,
+        pi_donor: raw.pi_donor,
+        cone_angle,
+        tep,
+        hazards: raw.hazards,
+        hazard_source: raw.hazard_source,
+        notes: raw.notes,
+        modes,
+        origin: origin.to_string(),
+    })
+}
+
+/// 1-based line and column of a byte offset.
+fn line_col(text: &str, offset: usize) -> (usize, usize) {
+    let offset = offset.min(text.len());
+    let before = &text[..offset];
+    let line = before.matches('\n').count() + 1;
+    let col = before.rsplit('\n').next().map_or(0, |l| l.chars().count()) + 1;
+    (line, col)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn syntax_error_names_line_and_column() {
+        let text = "[[ligand]]\nkey = \"X1\"\nname = oops\n";
+        let (ligs, errs) = parse_set("bad.toml", text, "test");
+        assert!(ligs.is_empty());
+        assert_eq!(errs.len(), 1);
+        assert_eq!((errs[0].line, errs[0].file.as_str()), (3, "bad.toml"));
+        assert!(errs[0].to_string().starts_with("bad.toml:3:"));
+    }
+
+    #[test]
+    fn bad_ligand_is_skipped_and_named_others_load() {
+        let text = r#"
+[[ligand]]
+key = "Good"
+name = "good"
+formula = "Gd1"
+family = "amine"
+[[ligand.mode]]
+label = "κ1"
+class = "L"
+
+[[ligand]]
+key = "Bad"
+name = "bad"
+formula = "Bd1"
+family = "amine"
+[[ligand.mode]]
+label = "κ1"
+class = "LQ"
+"#;
+        let (ligs, errs) = parse_set("mixed.toml", text, "test");
+        assert_eq!(ligs.len(), 1);
+        assert_eq!(errs.len(), 1);
+        assert_eq!(errs[0].key.as_deref(), Some("Bad"));
+        assert_eq!(errs[0].line, 18);
+        assert!(errs[0].message.contains("CBC class"));
+    }
+
+    #[test]
+    fn numbers_without_source_are_refused() {
+        let text = r#"
+[[ligand]]
+key = "Q"
+name = "q"
+formula = "Q"
+family = "phosphine"
+cone_angle = 120.0
+[[ligand.mode]]
+label = "κ1"
+class = "L"
+"#;
+        let (_, errs) = parse_set("s.toml", text, "test");
+        assert!(errs[0].message.contains("cone_angle_source"));
+    }
+}

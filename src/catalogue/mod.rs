@@ -1,0 +1,214 @@
+//! The ligand catalogue: bundled sets compiled into the binary, user sets merged over them,
+//! token look-up for the formula parser, and fuzzy search.
+
+mod load;
+mod search;
+
+use std::collections::HashMap;
+use std::path::{Path, PathBuf};
+use std::sync::Arc;
+
+use fuzzy_matcher::skim::SkimMatcherV2;
+
+use crate::chem::formula::LigandLookup;
+use crate::chem::ligand::LigandDef;
+
+pub use load::{parse_set, SetError, FAMILIES};
+pub use search::Hit;
+
+include!(concat!(env!("OUT_DIR"), "/bundled_sets.rs"));
+
+/// All known ligands, indexed for the parser and for search.
+pub struct Catalogue {
+    ligands: Vec<Arc<LigandDef>>,
+    /// Formula token (key, formula, alias without spaces) -> ligand index.
+    tokens: HashMap<String, usize>,
+    /// First byte of a token -> (token, ligand index), longest tokens first.
+    by_first: HashMap<u8, Vec<(String, usize)>>,
+    /// Problems found while loading: bad files, bad entries, clashing tokens.
+    pub warnings: Vec<SetError>,
+    matcher: SkimMatcherV2,
+}
+
+impl Catalogue {
+    /// The bundled sets only.
+    pub fn bundled() -> Catalogue {
+        Catalogue::from_sets(bundled_texts(), Vec::new())
+    }
+
+    /// The bundled sets with every `*.toml` in `user_dir` merged over them (same key replaces).
+    pub fn with_user_dir(user_dir: Option<&Path>) -> Catalogue {
+        let mut user = Vec::new();
+        let mut io_errors = Vec::new();
+        if let Some(dir) = user_dir {
+            match std::fs::read_dir(dir) {
+                Ok(rd) => {
+                    let mut paths: Vec<PathBuf> = rd
+                        .filter_map(Result::ok)
+                        .map(|e| e.path())
+                        .filter(|p| p.extension().is_some_and(|x| x == "toml"))
+                        .collect();
+                    paths.sort();
+                    for p in paths {
+                        let name = p.display().to_string();
+                        match std::fs::read_to_string(&p) {
+                            Ok(text) => user.push((name, text)),
+                            Err(e) => io_errors.push(SetError {
+                                file: name,
+                                line: 0,
+                                column: 0,
+                                key: None,
+                                message: format!("cannot read: {e}"),
+                            }),
+                        }
+                    }
+                }
+                Err(e) if e.kind() == std::io::ErrorKind::NotFound => {}
+                Err(e) => io_errors.push(SetError {
+                    file: dir.display().to_string(),
+                    line: 0,
+                    column: 0,
+                    key: None,
+                    message: format!("cannot list user ligand sets: {e}"),
+                }),
+            }
+        }
+        let mut c = Catalogue::from_sets(bundled_texts(), user);
+        c.warnings.extend(io_errors);
+        c
+    }
+
+    /// Build from (name, text) pairs: bundled first, then user sets.
+    pub fn from_sets(bundled: Vec<(String, String)>, user: Vec<(String, String)>) -> Catalogue {
+        let mut warnings = Vec::new();
+        let mut ligands: Vec<LigandDef> = Vec::new();
+        for (is_user, (name, text)) in bundled
+            .into_iter()
+            .map(|s| (false, s))
+            .chain(user.into_iter().map(|s| (true, s)))
+        {
+            let origin = if is_user {
+                name.clone()
+            } else {
+                format!("bundled:{}", name.trim_end_matches(".toml"))
+            };
+            let (defs, errs) = load::parse_set(&name, &text, &origin);
+            warnings.extend(errs);
+            for d in defs {
+                match ligands.iter().position(|l| l.key == d.key) {
+                    Some(i) if is_user => ligands[i] = d,
+                    Some(_) => warnings.push(SetError {
+                        file: name.clone(),
+                        line: 0,
+                        column: 0,
+                        key: Some(d.key.clone()),
+                        message: "key defined twice in the bundled sets; the first is kept".into(),
+                    }),
+                    None => ligands.push(d),
+                }
+            }
+        }
+        let ligands: Vec<Arc<LigandDef>> = ligands.into_iter().map(Arc::new).collect();
+        let mut tokens: HashMap<String, usize> = HashMap::new();
+        for (i, l) in ligands.iter().enumerate() {
+            for t in formula_tokens(l) {
+                match tokens.get(t) {
+                    Some(&j) if j != i => warnings.push(SetError {
+                        file: l.origin.clone(),
+                        line: 0,
+                        column: 0,
+                        key: Some(l.key.clone()),
+                        message: format!(
+                            "'{t}' already names ligand '{}'; it keeps that meaning",
+                            ligands[j].key
+                        ),
+                    }),
+                    Some(_) => {}
+                    None => {
+                        tokens.insert(t.to_string(), i);
+                    }
+                }
+            }
+        }
+        let mut by_first: HashMap<u8, Vec<(String, usize)>> = HashMap::new();
+        for (t, &i) in &tokens {
+            if let Some(&b) = t.as_bytes().first() {
+                by_first.entry(b).or_default().push((t.clone(), i));
+            }
+        }
+        for list in by_first.values_mut() {
+            list.sort_by(|a, b| b.0.len().cmp(&a.0.len()).then(a.0.cmp(&b.0)));
+        }
+        Catalogue {
+            ligands,
+            tokens,
+            by_first,
+            warnings,
+            matcher: SkimMatcherV2::default(),
+        }
+    }
+
+    pub fn ligands(&self) -> &[Arc<LigandDef>] {
+        &self.ligands
+    }
+
+    pub fn len(&self) -> usize {
+        self.ligands.len()
+    }
+
+    pub fn is_empty(&self) -> bool {
+        self.ligands.is_empty()
+    }
+
+    pub fn get(&self, key: &str) -> Option<&Arc<LigandDef>> {
+        self.tokens.get(key).map(|&i| &self.ligands[i])
+    }
+}
+
+fn bundled_texts() -> Vec<(String, String)> {
+    BUNDLED
+        .iter()
+        .map(|(n, t)| (n.to_string(), t.to_string()))
+        .collect()
+}
+
+/// The strings that name a ligand inside a formula: key, formula and aliases without spaces.
+fn formula_tokens(l: &LigandDef) -> impl Iterator<Item = &str> {
+    std::iter::once(l.key.as_str())
+        .chain(std::iter::once(l.formula.as_str()))
+        .chain(l.aliases.iter().map(String::as_str))
+        .filter(|t| !t.is_empty() && !t.chars().any(char::is_whitespace))
+}
+
+impl LigandLookup for Catalogue {
+    fn exact(&self, token: &str) -> Option<&Arc<LigandDef>> {
+        self.get(token)
+    }
+
+    fn longest_prefix(&self, text: &str) -> Option<(&Arc<LigandDef>, usize)> {
+        let first = *text.as_bytes().first()?;
+        self.by_first
+            .get(&first)?
+            .iter()
+            .find(|(t, _)| text.starts_with(t.as_str()))
+            .map(|(t, i)| (&self.ligands[*i], t.len()))
+    }
+
+    fn suggest(&self, token: &str) -> Option<String> {
+        search::suggest(self, token)
+    }
+}
+
+/// Where user ligand sets are read from: `$NONET_CONFIG_DIR/ligand_sets`, else the platform
+/// config directory (XDG on Linux).
+pub fn user_set_dir() -> Option<PathBuf> {
+    config_dir().map(|d| d.join("ligand_sets"))
+}
+
+/// The config directory: `NONET_CONFIG_DIR` if set and non-empty, else the platform's.
+pub fn config_dir() -> Option<PathBuf> {
+    match std::env::var_os("NONET_CONFIG_DIR") {
+        Some(v) if !v.is_empty() => Some(PathBuf::from(v)),
+        _ => directories::ProjectDirs::from("", "", "nonet").map(|p| p.config_dir().to_path_buf()),
+    }
+}

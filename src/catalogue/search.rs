@@ -1,0 +1,129 @@
+//! Fuzzy search over the catalogue and "did you mean" suggestions for unknown tokens.
+
+use std::sync::Arc;
+
+use fuzzy_matcher::FuzzyMatcher;
+
+use super::Catalogue;
+use crate::chem::ligand::LigandDef;
+
+/// A ligand matching a query, with the matcher's score (higher is better).
+#[derive(Debug, Clone)]
+pub struct Hit {
+    pub ligand: Arc<LigandDef>,
+    pub score: i64,
+}
+
+impl Catalogue {
+    /// Ligands matching `query` in key, name, formula or aliases, best first; ties by key so the
+    /// order is stable. An empty query lists everything in catalogue order.
+    pub fn search(&self, query: &str) -> Vec<Hit> {
+        let query = query.trim();
+        if query.is_empty() {
+            return self
+                .ligands
+                .iter()
+                .map(|l| Hit {
+                    ligand: l.clone(),
+                    score: 0,
+                })
+                .collect();
+        }
+        let mut hits: Vec<Hit> = self
+            .ligands
+            .iter()
+            .filter_map(|l| {
+                self.score(l, query).map(|score| Hit {
+                    ligand: l.clone(),
+                    score,
+                })
+            })
+            .collect();
+        hits.sort_by(|a, b| {
+            b.score
+                .cmp(&a.score)
+                .then_with(|| a.ligand.key.cmp(&b.ligand.key))
+        });
+        hits
+    }
+
+    /// Best score of `query` over a ligand's names; exact key or alias matches rank first.
+    fn score(&self, l: &LigandDef, query: &str) -> Option<i64> {
+        let fields = std::iter::once(l.key.as_str())
+            .chain(std::iter::once(l.name.as_str()))
+            .chain(std::iter::once(l.formula.as_str()))
+            .chain(l.aliases.iter().map(String::as_str));
+        let mut best: Option<i64> = None;
+        for (i, f) in fields.enumerate() {
+            let bonus = if f.eq_ignore_ascii_case(query) {
+                1000
+            } else {
+                0
+            };
+            // the key is what a chemist types: favour it slightly
+            let key_bonus = if i == 0 { 5 } else { 0 };
+            if let Some(s) = self.matcher.fuzzy_match(f, query) {
+                let s = s + bonus + key_bonus;
+                best = Some(best.map_or(s, |b| b.max(s)));
+            }
+        }
+        best
+    }
+}
+
+/// The nearest known formula token to `token`: a case-insensitive match, else the closest by
+/// edit distance, else the best fuzzy match.
+pub fn suggest(cat: &Catalogue, token: &str) -> Option<String> {
+    if token.is_empty() {
+        return None;
+    }
+    let lower = token.to_lowercase();
+    let mut tokens: Vec<&String> = cat.tokens.keys().collect();
+    tokens.sort();
+    if let Some(t) = tokens.iter().find(|t| t.to_lowercase() == lower) {
+        return Some((*t).clone());
+    }
+    let limit = (token.chars().count() / 3).clamp(1, 3);
+    let mut best: Option<(usize, &String)> = None;
+    for t in &tokens {
+        let d = edit_distance(&lower, &t.to_lowercase());
+        if d <= limit && best.is_none_or(|(bd, _)| d < bd) {
+            best = Some((d, t));
+        }
+    }
+    if let Some((_, t)) = best {
+        return Some(t.clone());
+    }
+    cat.search(token)
+        .into_iter()
+        .find(|h| h.score > 40)
+        .map(|h| h.ligand.key.clone())
+}
+
+/// Levenshtein distance over characters.
+fn edit_distance(a: &str, b: &str) -> usize {
+    let b: Vec<char> = b.chars().collect();
+    let mut prev: Vec<usize> = (0..=b.len()).collect();
+    let mut cur = vec![0; b.len() + 1];
+    for (i, ca) in a.chars().enumerate() {
+        cur[0] = i + 1;
+        for (j, cb) in b.iter().enumerate() {
+            let sub = prev[j] + usize::from(ca != *cb);
+            cur[j + 1] = sub.min(prev[j + 1] + 1).min(cur[j] + 1);
+        }
+        std::mem::swap(&mut prev, &mut cur);
+    }
+    prev[b.len()]
+}
+
+#[cfg(test)]
+mod tests {
+    use super::edit_distance;
+
+    #[test]
+    fn edit_distance_counts_single_changes() {
+        assert_eq!(edit_distance("pph3", "pph3"), 0);
+        assert_eq!(edit_distance("pme3", "pmw3"), 1);
+        assert_eq!(edit_distance("", "abc"), 3);
+    }
+}

@@ -1,0 +1,658 @@
+//! Electron counting under the neutral (covalent) and ionic models, oxidation state, d count,
+//! CBC class (Green, J. Organomet. Chem. 1995, 500, 127; Green & Parkin, J. Chem. Educ. 2014,
+//! 91, 807), coordination and saturation, for every metal of a complex.
+
+use serde::Serialize;
+
+use super::cluster::{self, ClusterView};
+use super::complex::{charge_text, BoundLigand, Complex};
+use super::element::Block;
+use super::frac::Frac;
+use super::spin::{self, SpinGuess, SpinInput};
+
+/// Whether a metal has the electrons its type usually wants.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Saturation {
+    Saturated,
+    Unsaturated,
+    #[serde(rename = "above_18")]
+    Above18,
+    NotApplicable,
+}
+
+impl Saturation {
+    pub fn word(self) -> &'static str {
+        match self {
+            Saturation::Saturated => "saturated",
+            Saturation::Unsaturated => "unsaturated",
+            Saturation::Above18 => "above 18",
+            Saturation::NotApplicable => "not applicable",
+        }
+    }
+}
+
+/// One ligand group's share in a metal's count.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Contribution {
+    pub ligand: String,
+    pub name: String,
+    pub mode: String,
+    pub class: String,
+    /// How many of this ligand the metal has (a fraction when shared between metals).
+    pub count: Frac,
+    pub neutral: Frac,
+    pub ionic: Frac,
+    pub ionic_charge: Frac,
+    pub shared: bool,
+}
+
+/// Everything counted for one metal.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct MetalReport {
+    pub symbol: &'static str,
+    pub group: u8,
+    pub valence_electrons: u8,
+    pub electron_count: Frac,
+    pub ionic_electron_count: Frac,
+    pub oxidation_state: Frac,
+    pub d_electrons: Frac,
+    pub coordination_number: Frac,
+    pub donor_atoms: Frac,
+    pub cbc_class: String,
+    pub equivalent_neutral_class: String,
+    pub valence_number: Frac,
+    pub ligand_bond_number: Frac,
+    /// d count from the CBC class: group minus valence number.
+    pub cbc_d_electrons: Frac,
+    /// Electron count from the CBC class, m + 2l + x (minus any charge left on the metal).
+    pub cbc_electron_count: Frac,
+    pub saturation: Saturation,
+    pub target: u8,
+    pub electrons_short: Frac,
+    pub open_sites: i64,
+    pub metal_metal_bonds: Frac,
+    pub charge_share: Frac,
+    pub contributions: Vec<Contribution>,
+    pub notes: Vec<String>,
+}
+
+/// The count of a whole complex.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Report {
+    pub formula: String,
+    pub charge: i32,
+    pub metals: Vec<MetalReport>,
+    pub metal_metal_bonds: Option<u32>,
+    pub cluster_valence_electrons: Frac,
+    pub polyhedron: Option<&'static str>,
+    pub geometry: &'static str,
+    pub unpaired_electrons: Vec<u8>,
+    pub spin_only_moment_bm: Vec<f64>,
+    pub spin_ambiguous: bool,
+    pub spin_basis: String,
+    pub cautions: Vec<String>,
+    pub notes: Vec<String>,
+}
+
+/// Cone angle from which a ligand is called bulky (PCy3 170 deg, PtBu3 182 deg; Tolman,
+/// Chem. Rev. 1977, 77, 313: such ligands favour ML3 and ML2 over ML4).
+const BULKY_CONE_ANGLE: f64 = 160.0;
+
+struct Tally {
+    neutral: Frac,
+    ionic: Frac,
+    ionic_charge: Frac,
+    l: Frac,
+    x: Frac,
+    z: Frac,
+    sites: Frac,
+    donors: Frac,
+    pi_donor: Vec<String>,
+    bulky: Vec<(String, f64)>,
+    contributions: Vec<Contribution>,
+}
+
+impl Tally {
+    fn new() -> Tally {
+        Tally {
+            neutral: Frac::ZERO,
+            ionic: Frac::ZERO,
+            ionic_charge: Frac::ZERO,
+            l: Frac::ZERO,
+            x: Frac::ZERO,
+            z: Frac::ZERO,
+            sites: Frac::ZERO,
+            donors: Frac::ZERO,
+            pi_donor: Vec::new(),
+            bulky: Vec::new(),
+            contributions: Vec::new(),
+        }
+    }
+
+    /// Add `b`, of which this metal holds the fraction `share`.
+    fn add(&mut self, b: &BoundLigand, share: Frac, shared: bool) {
+        let m = b.mode();
+        let count = share * b.count as i64;
+        let neutral = count * m.neutral_electrons();
+        let ionic = count * m.ionic_electrons();
+        let q = count * m.ionic_charge as i64;
+        self.neutral += neutral;
+        self.ionic += ionic;
+        self.ionic_charge += q;
+        self.l += count * m.class.l as i64;
+        self.x += count * m.class.x as i64;
+        self.z += count * m.class.z as i64;
+        self.sites += count * (m.sites as i64 * m.bridges as i64);
+        self.donors += count
+            * if m.bridges > 1 {
+                m.bridges as i64
+            } else {
+                m.donors as i64
+            };
+        if b.ligand.pi_donor && !self.pi_donor.contains(&b.ligand.key) {
+            self.pi_donor.push(b.ligand.key.clone());
+        }
+        if let Some(c) = &b.ligand.cone_angle {
+            if c.value >= BULKY_CONE_ANGLE && !self.bulky.iter().any(|(k, _)| *k == b.ligand.key) {
+                self.bulky.push((b.ligand.key.clone(), c.value));
+            }
+        }
+        self.contributions.push(Contribution {
+            ligand: b.ligand.key.clone(),
+            name: b.ligand.name.clone(),
+            mode: m.label.clone(),
+            class: m.class.to_string(),
+            count,
+            neutral,
+            ionic,
+            ionic_charge: q,
+            shared,
+        });
+    }
+}
+
+/// Count every metal of `complex`.
+pub fn count(complex: &Complex) -> Report {
+    let n = complex.metal_count().max(1) as i64;
+    let share = Frac::new(1, n);
+    let charge_share = Frac::new(complex.charge as i64, n);
+
+    let tallies: Vec<Tally> = complex
+        .sites
+        .iter()
+        .map(|site| {
+            let mut t = Tally::new();
+            for b in &site.ligands {
+                t.add(b, Frac::int(1), false);
+            }
+            for b in &complex.shared {
+                t.add(b, share, true);
+            }
+            t
+        })
+        .collect();
+
+    // Before any M-M bond: the count each metal gets from its ligands and its share of charge.
+    let pre: Vec<Frac> = complex
+        .sites
+        .iter()
+        .zip(&tallies)
+        .map(|(s, t)| t.neutral - charge_share + s.element.valence as i64)
+        .collect();
+    let oxidation: Vec<Frac> = tallies
+        .iter()
+        .map(|t| charge_share - t.ionic_charge)
+        .collect();
+    let d: Vec<Frac> = complex
+        .sites
+        .iter()
+        .zip(&oxidation)
+        .map(|(s, os)| -*os + s.element.valence as i64)
+        .collect();
+    let targets: Vec<u8> = complex
+        .sites
+        .iter()
+        .zip(&tallies)
+        .zip(&d)
+        .map(|((s, t), d)| {
+            let planar_d8 = (8..=11).contains(&s.element.group)
+                && s.element.block == Block::D
+                && d.as_int() == Some(8)
+                && t.sites == Frac::int(4);
+            if planar_d8 {
+                16
+            } else {
+                18
+            }
+        })
+        .collect();
+    let cve: Frac = pre.iter().copied().sum();
+    let three_centre: u32 = complex
+        .shared
+        .iter()
+        .filter(|b| b.mode().three_centre)
+        .map(|b| b.count)
+        .sum();
+
+    let view = if complex.metal_count() >= 2 {
+        let need: Vec<Frac> = pre
+            .iter()
+            .zip(&targets)
+            .map(|(p, t)| Frac::int(*t as i64) - *p)
+            .collect();
+        let no_bonds = complex
+            .sites
+            .iter()
+            .any(|s| s.element.block == Block::F || s.element.group >= 11);
+        let mut v = cluster::metal_bonds(&need, &d, cve, no_bonds);
+        if no_bonds {
+            v.notes.push(
+                "no M-M bonds inferred: f-block and group 11-12 metals are not counted to 18 e"
+                    .into(),
+            );
+        }
+        v
+    } else {
+        ClusterView {
+            bonds: Some(0),
+            polyhedron: None,
+            notes: Vec::new(),
+        }
+    };
+    let bond_total = view.bonds.unwrap_or(0);
+    let per_metal_bonds = bonds_per_metal(&pre, &targets, bond_total);
+
+    let metals: Vec<MetalReport> = complex
+        .sites
+        .iter()
+        .zip(tallies)
+        .enumerate()
+        .map(|(i, (site, t))| {
+            metal_report(
+                site.element,
+                t,
+                pre[i],
+                oxidation[i],
+                d[i],
+                targets[i],
+                per_metal_bonds[i],
+                charge_share,
+            )
+        })
+        .collect();
+
+    let mut notes = view.notes.clone();
+    let mut cautions = Vec::new();
+    collect_cautions(complex, &mut cautions);
+    if complex.metal_count() >= 2 && bond_total > 0 && carbonyl_may_bridge(complex) {
+        notes.push(
+            "where CO bridges the metals (as in Fe2(CO)9 and solid Co2(CO)8) bonding analyses find \
+             little or no direct M-M bond (Green, Green & Parkin, Chem. Commun. 2012, 48, 11481); \
+             the count given is the conventional one"
+                .into(),
+        );
+    }
+    if three_centre > 0 {
+        notes.push(format!(
+            "{three_centre} M-H-M bridge(s) counted as 3c-2e bonds; each stands in for one M-M bond"
+        ));
+    }
+
+    let (geometry, unpaired, ambiguous, basis) = spin_of(complex, &metals, cve, bond_total);
+    let moments = unpaired
+        .iter()
+        .map(|&u| (spin::spin_only_moment(u) * 100.0).round() / 100.0)
+        .collect();
+    Report {
+        formula: complex.formula(false),
+        charge: complex.charge,
+        metals,
+        metal_metal_bonds: view.bonds.map(|b| b.saturating_sub(three_centre.min(b))),
+        cluster_valence_electrons: cve,
+        polyhedron: view.polyhedron.map(|p| p.name),
+        geometry,
+        unpaired_electrons: unpaired,
+        spin_only_moment_bm: moments,
+        spin_ambiguous: ambiguous,
+        spin_basis: basis,
+        cautions,
+        notes,
+    }
+}
+
+/// Whether CO is written as a bridge, cannot be shared evenly (Fe2(CO)9), or sits on first-row
+/// group 8-9 metals, whose carbonyl dimers and clusters bridge (Co2(CO)8, [CpFe(CO)2]2).
+fn carbonyl_may_bridge(complex: &Complex) -> bool {
+    let n = complex.metal_count() as u32;
+    complex.all_ligands().any(|(_, b)| {
+        b.ligand.key == "CO"
+            && (b.mode().bridges > 1
+                || b.count % n != 0
+                || complex
+                    .sites
+                    .iter()
+                    .any(|s| s.element.is_first_row() && (8..=9).contains(&s.element.group)))
+    })
+}
+
+/// Spread `total` M-M bonds over the metals: exactly where each metal's shortfall says how many
+/// it makes, evenly otherwise.
+fn bonds_per_metal(pre: &[Frac], targets: &[u8], total: u32) -> Vec<Frac> {
+    let n = pre.len() as i64;
+    if total == 0 || n < 2 {
+        return vec![Frac::ZERO; pre.len()];
+    }
+    let need: Vec<Frac> = pre
+        .iter()
+        .zip(targets)
+        .map(|(p, t)| Frac::int(*t as i64) - *p)
+        .collect();
+    let sum: Frac = need.iter().copied().sum();
+    let max = if n == 2 { 4 } else { n - 1 };
+    let exact = sum == Frac::int(2 * total as i64)
+        && need
+            .iter()
+            .all(|x| x.is_integer() && *x >= Frac::ZERO && *x <= Frac::int(max));
+    if exact {
+        need
+    } else {
+        vec![Frac::new(2 * total as i64, n); pre.len()]
+    }
+}
+
+#[allow(clippy::too_many_arguments)]
+fn metal_report(
+    element: &'static super::element::Element,
+    t: Tally,
+    pre: Frac,
+    os: Frac,
+    d: Frac,
+    target: u8,
+    bonds: Frac,
+    charge_share: Frac,
+) -> MetalReport {
+    let count = pre + bonds;
+    let ionic_count = d + t.ionic + bonds;
+    let (l, x, z) = (t.l, t.x + bonds, t.z);
+    let raw = class_text(element.symbol, l, x, z, charge_share);
+    let (el, ex, ez, q_left) = equivalent_neutral(l, x, z, charge_share);
+    let enc = class_text(element.symbol, el, ex, ez, q_left);
+    let vn = ex + ez * 2;
+    let lbn = el + ex + ez;
+    let cbc_count = el * 2 + ex - q_left + element.valence as i64;
+    let mut notes = Vec::new();
+    let (saturation, short, open) = if element.block == Block::F {
+        notes.push("f-block metal: the 18-electron rule does not apply".into());
+        (Saturation::NotApplicable, Frac::ZERO, 0)
+    } else if count == Frac::int(target as i64) {
+        (Saturation::Saturated, Frac::ZERO, 0)
+    } else if count < Frac::int(target as i64) {
+        let short = Frac::int(target as i64) - count;
+        (Saturation::Unsaturated, short, (short / 2).floor())
+    } else if count > Frac::int(18) {
+        notes.push(
+            "electrons beyond 18 go into M-L antibonding orbitals: expect easy oxidation or \
+             ligand loss"
+                .into(),
+        );
+        (Saturation::Above18, Frac::ZERO, 0)
+    } else {
+        (Saturation::Saturated, Frac::ZERO, 0)
+    };
+    if target == 16 {
+        notes.push(
+            "square-planar d8 (groups 8-11) is stable at 16 e; it can still add a ligand or an \
+             oxidant to reach 18 e"
+                .into(),
+        );
+    }
+    if saturation == Saturation::Unsaturated {
+        if d == Frac::ZERO && !t.pi_donor.is_empty() {
+            notes.push(format!(
+                "d0 metal with π-donor ligands ({}): their lone pairs can add electrons the σ count \
+                 leaves out, so the count is ambiguous",
+                t.pi_donor.join(", ")
+            ));
+        } else if element.group <= 5 {
+            notes.push("early transition metals are often stable below 18 e".into());
+        }
+        if let Some((key, angle)) = t
+            .bulky
+            .iter()
+            .max_by(|a, b| a.1.partial_cmp(&b.1).unwrap_or(std::cmp::Ordering::Equal))
+        {
+            notes.push(format!(
+                "bulky ligand {key} (cone angle {angle:.0}°) keeps the metal at a low count and \
+                 coordination number"
+            ));
+        }
+    }
+    if element.group >= 11 && element.block == Block::D && d == Frac::int(10) {
+        notes.push(
+            "d10 metals of groups 11-12 often sit below 18 e (linear 14 e, trigonal 16 e)".into(),
+        );
+    }
+    if let Some(c) = count.as_int() {
+        if c % 2 != 0 && element.block == Block::D {
+            notes.push("odd electron count: a radical".into());
+        }
+    }
+    MetalReport {
+        symbol: element.symbol,
+        group: element.group,
+        valence_electrons: element.valence,
+        electron_count: count,
+        ionic_electron_count: ionic_count,
+        oxidation_state: os,
+        d_electrons: d,
+        coordination_number: t.sites,
+        donor_atoms: t.donors,
+        cbc_class: raw,
+        equivalent_neutral_class: enc,
+        valence_number: vn,
+        ligand_bond_number: lbn,
+        cbc_d_electrons: -vn + element.valence as i64,
+        cbc_electron_count: cbc_count,
+        saturation,
+        target,
+        electrons_short: short,
+        open_sites: open,
+        metal_metal_bonds: bonds,
+        charge_share,
+        contributions: t.contributions,
+        notes,
+    }
+}
+
+/// Green's equivalent neutral class: move each unit of charge onto a ligand (cation: L -> X,
+/// else X -> Z; anion: X -> L, else Z -> X), then rewrite each LZ pair as X2. Charge that
+/// cannot move stays on the metal. Fractions (shared ligands) are left as they are.
+fn equivalent_neutral(l: Frac, x: Frac, z: Frac, q: Frac) -> (Frac, Frac, Frac, Frac) {
+    let (Some(mut l), Some(mut x), Some(mut z), Some(mut q)) =
+        (l.as_int(), x.as_int(), z.as_int(), q.as_int())
+    else {
+        return (l, x, z, q);
+    };
+    while q > 0 {
+        if l > 0 {
+            l -= 1;
+            x += 1;
+        } else if x > 0 {
+            x -= 1;
+            z += 1;
+        } else {
+            break;
+        }
+        q -= 1;
+    }
+    while q < 0 {
+        if x > 0 {
+            x -= 1;
+            l += 1;
+        } else if z > 0 {
+            z -= 1;
+            x += 1;
+        } else {
+            break;
+        }
+        q += 1;
+    }
+    let lz = l.min(z);
+    (
+        Frac::int(l - lz),
+        Frac::int(x + 2 * lz),
+        Frac::int(z - lz),
+        Frac::int(q),
+    )
+}
+
+fn class_text(symbol: &str, l: Frac, x: Frac, z: Frac, q: Frac) -> String {
+    let mut s = format!("[{symbol}");
+    for (letter, n) in [("L", l), ("X", x), ("Z", z)] {
+        if n == Frac::ZERO {
+            continue;
+        }
+        s.push_str(letter);
+        if n != Frac::int(1) {
+            s.push_str(&n.to_string());
+        }
+    }
+    s.push(']');
+    match q.as_int() {
+        Some(c) => s.push_str(&charge_text(c as i32)),
+        None => s.push_str(&format!("({q})")),
+    }
+    s
+}
+
+type SpinSummary = (&'static str, Vec<u8>, bool, String);
+
+fn spin_of(complex: &Complex, metals: &[MetalReport], cve: Frac, bonds: u32) -> SpinSummary {
+    if complex.metal_count() >= 2 {
+        if bonds > 0 || metals.iter().all(|m| m.saturation == Saturation::Saturated) {
+            let odd = cve.as_int().map(|c| c % 2 != 0);
+            let unpaired = match odd {
+                Some(true) => vec![1],
+                Some(false) => vec![0],
+                None => Vec::new(),
+            };
+            return (
+                "polynuclear",
+                unpaired,
+                false,
+                "metal-metal bonded: from the parity of the cluster count".into(),
+            );
+        }
+        let mut total = 0u8;
+        for (site, m) in complex.sites.iter().zip(metals) {
+            let g = centre_guess(complex, site_index(complex, site), m);
+            total = total.saturating_add(g.unpaired.first().copied().unwrap_or(0));
+        }
+        return (
+            "polynuclear",
+            vec![total],
+            true,
+            "metals without M-M bonds: sum of the centres, ignoring magnetic coupling".into(),
+        );
+    }
+    let Some(m) = metals.first() else {
+        return ("unknown", Vec::new(), false, String::new());
+    };
+    let g = centre_guess(complex, 0, m);
+    (g.geometry, g.unpaired, g.ambiguous, g.basis)
+}
+
+fn site_index(complex: &Complex, site: &super::complex::MetalSite) -> usize {
+    complex
+        .sites
+        .iter()
+        .position(|s| std::ptr::eq(s, site))
+        .unwrap_or(0)
+}
+
+fn centre_guess(complex: &Complex, i: usize, m: &MetalReport) -> SpinGuess {
+    let Some(site) = complex.sites.get(i) else {
+        return spin::guess(&SpinInput {
+            d: -1,
+            symbol: m.symbol,
+            oxidation_state: 0,
+            first_row: false,
+            f_block: false,
+            sites: 0,
+            rings: 0,
+            field: 1.0,
+        });
+    };
+    let mut rings = 0;
+    let mut field_sum = 0.0;
+    let mut weight = 0.0;
+    for b in site.ligands.iter().chain(&complex.shared) {
+        let mode = b.mode();
+        if mode.hapticity().is_some_and(|h| h >= 5) {
+            rings += b.count;
+        }
+        if let Some(f) = b.ligand.field {
+            let w = (b.count as f64) * mode.sites as f64;
+            field_sum += f.score() * w;
+            weight += w;
+        }
+    }
+    let d = m.d_electrons.as_int().unwrap_or(-1);
+    spin::guess(&SpinInput {
+        d,
+        symbol: m.symbol,
+        oxidation_state: m.oxidation_state.as_int().unwrap_or(0),
+        first_row: site.element.is_first_row(),
+        f_block: site.element.block == Block::F,
+        sites: m.coordination_number.as_int().unwrap_or(0),
+        rings,
+        field: if weight > 0.0 { field_sum / weight } else { 1.0 },
+    })
+}
+
+/// GHS hazards of the free ligands, and the general cautions for metal carbonyls and alkyls.
+fn collect_cautions(complex: &Complex, out: &mut Vec<String>) {
+    let mut seen: Vec<&str> = Vec::new();
+    let mut carbonyl = false;
+    let mut alkyl = false;
+    for (_, b) in complex.all_ligands() {
+        let l = &b.ligand;
+        carbonyl |= l.key == "CO";
+        alkyl |= l.family == "alkyl";
+        if l.hazards.is_empty() || seen.contains(&l.key.as_str()) {
+            continue;
+        }
+        seen.push(&l.key);
+        let src = l
+            .hazard_source
+            .as_deref()
+            .map(|s| format!(" ({s})"))
+            .unwrap_or_default();
+        out.push(format!(
+            "{} ({}), free ligand: {}{}",
+            l.key,
+            l.name,
+            l.hazards.join(", "),
+            src
+        ));
+    }
+    if carbonyl {
+        out.push(
+            "metal carbonyls can release carbon monoxide; several are volatile and highly toxic"
+                .into(),
+        );
+    }
+    if alkyl {
+        out.push(
+            "metal alkyls can be pyrophoric or react violently with water and air".into(),
+        );
+    }
+    if !out.is_empty() {
+        out.push(
+            "consult the supplier's safety data sheet and local rules; nonet plans on paper and \
+             never judges whether a reaction is safe"
+                .into(),
+        );
+    }
+}

@@ -1,0 +1,607 @@
+//! The formula parser for the notation chemists write in papers, and its error type.
+//!
+//! Accepted: metal first or ligands first (`CpFe(CO)2Me`, `[Fe(CO)2(η5-C5H5)(CH3)]`), square
+//! brackets with a trailing charge (`[Co(NH3)6]3+`), multipliers on any group, several metals
+//! (`Os3(CO)12`), single-metal fragments (`[CpFe(CO)2]2`), mode prefixes in Greek or ASCII
+//! (`η5-`, `eta5-`, `κ2-`, `μ-`, `mu3-`, or a word such as `bent-`). Ligand names come from the
+//! catalogue through [`LigandLookup`]; inside parentheses a whole catalogue entry wins over
+//! element symbols, so `Pd(PtBu3)2` is palladium with two tri-tert-butylphosphines.
+
+use std::fmt;
+use std::sync::Arc;
+
+use super::complex::{BoundLigand, Complex, MetalSite};
+use super::element::{self, Element};
+use super::ligand::{normalize_label, LigandDef};
+
+/// Where the parser finds ligands. The catalogue implements it; tests may use a small map.
+pub trait LigandLookup {
+    /// The ligand whose key, formula or alias is exactly `token`.
+    fn exact(&self, token: &str) -> Option<&Arc<LigandDef>>;
+    /// The ligand with the longest formula token that `text` starts with, and that token's
+    /// length in bytes.
+    fn longest_prefix(&self, text: &str) -> Option<(&Arc<LigandDef>, usize)>;
+    /// The nearest known token to an unknown one, for "did you mean".
+    fn suggest(&self, token: &str) -> Option<String>;
+}
+
+/// A formula that could not be read: what is wrong and where.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ParseError {
+    pub input: String,
+    pub message: String,
+    /// 0-based column (in characters) of the offending text in `input`.
+    pub column: usize,
+    pub width: usize,
+    pub suggestion: Option<String>,
+    pub hint: Option<String>,
+}
+
+impl ParseError {
+    /// The error with the input underneath and a caret under the problem.
+    pub fn render(&self) -> String {
+        let mut out = format!(
+            "{} (column {})\n  {}\n  ",
+            self.message,
+            self.column + 1,
+            self.input
+        );
+        out.push_str(&" ".repeat(self.column));
+        out.push_str(&"^".repeat(self.width.max(1)));
+        if let Some(s) = &self.suggestion {
+            out.push_str(&format!("\n  did you mean '{s}'?"));
+        }
+        if let Some(h) = &self.hint {
+            out.push_str(&format!("\n  {h}"));
+        }
+        out
+    }
+}
+
+impl fmt::Display for ParseError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        write!(f, "{} (column {})", self.message, self.column + 1)?;
+        if let Some(s) = &self.suggestion {
+            write!(f, "; did you mean '{s}'?")?;
+        }
+        Ok(())
+    }
+}
+
+impl std::error::Error for ParseError {}
+
+const MAX_MULTIPLIER: u32 = 999;
+const MAX_METALS: usize = 64;
+const MAX_DEPTH: usize = 16;
+
+/// Parse a formula into a canonical [`Complex`].
+pub fn parse(input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseError> {
+    let (text, cols) = normalize(input);
+    let mut p = Parser {
+        input,
+        text: &text,
+        cols: &cols,
+        lookup,
+        metals: 0,
+    };
+    let (body_end, charge) = p.split_charge()?;
+    let mut pos = 0;
+    let root = p.sequence(&mut pos, body_end, None, 0)?;
+    if pos < body_end {
+        return Err(p.error(pos, 1, "unexpected text".into()));
+    }
+    if root.metal_total() == 0 {
+        return Err(ParseError {
+            input: input.to_string(),
+            message: "no metal in the formula".into(),
+            column: 0,
+            width: input.chars().count().max(1),
+            suggestion: None,
+            hint: Some("write the metal's symbol, e.g. Fe(CO)5 or [Co(NH3)6]3+".into()),
+        });
+    }
+    let mut complex = Complex {
+        sites: Vec::new(),
+        shared: Vec::new(),
+        charge,
+    };
+    flatten(root, &mut complex);
+    complex.canonicalize();
+    let n = complex.metal_count();
+    for (_, b) in complex.all_ligands() {
+        let m = b.mode();
+        if m.bridges as usize > n {
+            return Err(ParseError {
+                input: input.to_string(),
+                message: format!(
+                    "{}-{} bridges {} metals but the formula has {}",
+                    m.label, b.ligand.key, m.bridges, n
+                ),
+                column: 0,
+                width: input.chars().count().max(1),
+                suggestion: None,
+                hint: Some("write the terminal form, or add the other metals".into()),
+            });
+        }
+    }
+    Ok(complex)
+}
+
+/// Map look-alike characters onto the ones the grammar uses, remembering each character's
+/// column in the original text.
+fn normalize(input: &str) -> (String, Vec<usize>) {
+    const SUPER: &str = "⁰¹²³⁴⁵⁶⁷⁸⁹";
+    const SUB: &str = "₀₁₂₃₄₅₆₇₈₉";
+    let mut text = String::with_capacity(input.len());
+    let mut cols = Vec::with_capacity(input.len());
+    for (col, c) in input.chars().enumerate() {
+        let mapped = match c {
+            'µ' => 'μ',
+            '−' | '–' | '—' | '⁻' => '-',
+            '⁺' => '+',
+            '\t' | '\u{a0}' => ' ',
+            c => {
+                if let Some(i) = SUPER.chars().position(|s| s == c) {
+                    char::from(b'0' + i as u8)
+                } else if let Some(i) = SUB.chars().position(|s| s == c) {
+                    char::from(b'0' + i as u8)
+                } else {
+                    c
+                }
+            }
+        };
+        text.push(mapped);
+        cols.push(col);
+    }
+    (text, cols)
+}
+
+/// A parsed group before the metals and ligands are laid out.
+#[derive(Debug, Clone, Default)]
+struct Group {
+    metals: Vec<&'static Element>,
+    ligands: Vec<BoundLigand>,
+    children: Vec<Group>,
+}
+
+impl Group {
+    fn metal_total(&self) -> usize {
+        self.metals.len() + self.children.iter().map(Group::metal_total).sum::<usize>()
+    }
+
+    fn first_metal(&self) -> Option<&'static Element> {
+        self.metals
+            .first()
+            .copied()
+            .or_else(|| self.children.iter().find_map(Group::first_metal))
+    }
+
+    fn drain_ligands(self, out: &mut Vec<BoundLigand>) {
+        out.extend(self.ligands);
+        for c in self.children {
+            c.drain_ligands(out);
+        }
+    }
+}
+
+/// Lay a group tree out as sites and shared ligands: a group holding exactly one metal is that
+/// metal's fragment; bridging ligands are always shared.
+fn flatten(group: Group, complex: &mut Complex) {
+    if group.metal_total() == 1 {
+        if let Some(element) = group.first_metal() {
+            let mut ligands = Vec::new();
+            group.drain_ligands(&mut ligands);
+            let (bridges, own): (Vec<_>, Vec<_>) =
+                ligands.into_iter().partition(|b| b.mode().bridges > 1);
+            complex.shared.extend(bridges);
+            complex.sites.push(MetalSite {
+                element,
+                ligands: own,
+            });
+        }
+        return;
+    }
+    for m in group.metals {
+        complex.sites.push(MetalSite {
+            element: m,
+            ligands: Vec::new(),
+        });
+    }
+    complex.shared.extend(group.ligands);
+    for c in group.children {
+        if c.metal_total() == 0 {
+            c.drain_ligands(&mut complex.shared);
+        } else {
+            flatten(c, complex);
+        }
+    }
+}
+
+struct Parser<'a> {
+    input: &'a str,
+    text: &'a str,
+    cols: &'a [usize],
+    lookup: &'a dyn LigandLookup,
+    metals: usize,
+}
+
+impl<'a> Parser<'a> {
+    fn column(&self, byte: usize) -> usize {
+        let idx = self.text[..byte.min(self.text.len())].chars().count();
+        self.cols
+            .get(idx)
+            .copied()
+            .unwrap_or_else(|| self.input.chars().count())
+    }
+
+    fn error(&self, byte: usize, width_bytes: usize, message: String) -> ParseError {
+        let end = (byte + width_bytes).min(self.text.len());
+        let end = (end..=self.text.len())
+            .find(|&e| self.text.is_char_boundary(e))
+            .unwrap_or(self.text.len());
+        let column = self.column(byte);
+        let width = self.column(end).saturating_sub(column).max(1);
+        ParseError {
+            input: self.input.to_string(),
+            message,
+            column,
+            width,
+            suggestion: None,
+            hint: None,
+        }
+    }
+
+    /// Find a trailing charge ("3+", "2-", "+", "-", "+2") after a closing bracket or a space.
+    fn split_charge(&self) -> Result<(usize, i32), ParseError> {
+        let t = self.text.trim_end();
+        let bytes = t.as_bytes();
+        let Some(&last) = bytes.last() else {
+            return Err(ParseError {
+                input: self.input.to_string(),
+                message: "empty formula".into(),
+                column: 0,
+                width: 1,
+                suggestion: None,
+                hint: Some("write a complex, e.g. Fe(CO)5".into()),
+            });
+        };
+        let (start, sign, digits) = if last == b'+' || last == b'-' {
+            let d = bytes[..bytes.len() - 1]
+                .iter()
+                .rev()
+                .take_while(|b| b.is_ascii_digit())
+                .count();
+            let start = bytes.len() - 1 - d;
+            (start, last, &t[start..bytes.len() - 1])
+        } else if last.is_ascii_digit() {
+            let d = bytes.iter().rev().take_while(|b| b.is_ascii_digit()).count();
+            let s = bytes.len() - d;
+            match s.checked_sub(1).map(|i| bytes[i]) {
+                Some(sign @ (b'+' | b'-')) => (s - 1, sign, &t[s..]),
+                _ => return Ok((t.len(), 0)),
+            }
+        } else {
+            return Ok((t.len(), 0));
+        };
+        let before = t[..start].trim_end();
+        let spaced = before.len() < start;
+        if !(before.ends_with(']') || spaced) {
+            return Err(self.error(
+                start,
+                t.len() - start,
+                "a charge must follow a closing bracket or a space".into(),
+            )
+            .with_hint("write e.g. [Co(NH3)6]3+ or Co(NH3)6 3+"));
+        }
+        let magnitude: i32 = if digits.is_empty() {
+            1
+        } else {
+            digits
+                .parse()
+                .ok()
+                .filter(|&m| m <= 99)
+                .ok_or_else(|| self.error(start, t.len() - start, "charge too large".into()))?
+        };
+        let charge = if sign == b'+' { magnitude } else { -magnitude };
+        Ok((before.len(), charge))
+    }
+
+    /// Read items until `end` or the closing character.
+    fn sequence(
+        &mut self,
+        pos: &mut usize,
+        end: usize,
+        close: Option<u8>,
+        depth: usize,
+    ) -> Result<Group, ParseError> {
+        if depth > MAX_DEPTH {
+            return Err(self.error(*pos, 1, "brackets nested too deeply".into()));
+        }
+        let mut group = Group::default();
+        while *pos < end {
+            let rest = &self.text[*pos..end];
+            let c = rest.as_bytes()[0];
+            match c {
+                b' ' => *pos += 1,
+                b'[' | b'(' => {
+                    let open = *pos;
+                    let close_at = self.matching(open, end)?;
+                    let inner_start = open + 1;
+                    let child = if c == b'(' {
+                        self.paren_group(inner_start, close_at, depth)?
+                    } else {
+                        let mut p = inner_start;
+                        let g = self.sequence(&mut p, close_at, Some(b']'), depth + 1)?;
+                        Item::Group(g)
+                    };
+                    *pos = close_at + 1;
+                    let n = self.multiplier(pos, end)?;
+                    self.push(&mut group, child, n, open)?;
+                }
+                b')' | b']' => {
+                    if close == Some(c) {
+                        return Ok(group);
+                    }
+                    return Err(self.error(*pos, 1, format!("unmatched '{}'", c as char)));
+                }
+                b'0'..=b'9' => {
+                    return Err(self.error(
+                        *pos,
+                        1,
+                        "a number must follow a metal, a ligand or a bracket".into(),
+                    ))
+                }
+                _ => {
+                    let start = *pos;
+                    let (item, len) = self.bare(start, end)?;
+                    *pos = start + len;
+                    let n = self.multiplier(pos, end)?;
+                    self.push(&mut group, item, n, start)?;
+                }
+            }
+        }
+        Ok(group)
+    }
+
+    fn push(&mut self, group: &mut Group, item: Item, n: u32, at: usize) -> Result<(), ParseError> {
+        match item {
+            Item::Metal(e) => {
+                self.metals += n as usize;
+                self.check_metals(at)?;
+                group.metals.extend(std::iter::repeat_n(e, n as usize));
+            }
+            Item::Ligand(mut b) => {
+                b.count = b.count.saturating_mul(n);
+                group.ligands.push(b);
+            }
+            Item::Group(g) => {
+                let inner = g.metal_total();
+                if n > 1 && inner > 0 {
+                    self.metals += inner * (n as usize - 1);
+                    self.check_metals(at)?;
+                }
+                for _ in 1..n {
+                    group.children.push(g.clone());
+                }
+                group.children.push(g);
+            }
+        }
+        Ok(())
+    }
+
+    fn check_metals(&self, at: usize) -> Result<(), ParseError> {
+        if self.metals > MAX_METALS {
+            Err(self.error(
+                at,
+                1,
+                format!("more than {MAX_METALS} metals; nonet counts molecular complexes"),
+            ))
+        } else {
+            Ok(())
+        }
+    }
+
+    /// Index of the bracket closing the one at `open`.
+    fn matching(&self, open: usize, end: usize) -> Result<usize, ParseError> {
+        let mut stack: Vec<u8> = Vec::new();
+        for (i, &b) in self.text.as_bytes()[open..end].iter().enumerate() {
+            match b {
+                b'(' | b'[' => stack.push(b),
+                b')' | b']' => {
+                    let want = if b == b')' { b'(' } else { b'[' };
+                    if stack.pop() != Some(want) {
+                        return Err(self.error(open + i, 1, format!("unmatched '{}'", b as char)));
+                    }
+                    if stack.is_empty() {
+                        return Ok(open + i);
+                    }
+                }
+                _ => {}
+            }
+        }
+        let opener = self.text.as_bytes()[open] as char;
+        let closer = if opener == '(' { ')' } else { ']' };
+        Err(self
+            .error(open, 1, format!("'{opener}' is never closed"))
+            .with_hint(&format!("add the missing '{closer}'")))
+    }
+
+    fn multiplier(&self, pos: &mut usize, end: usize) -> Result<u32, ParseError> {
+        let digits = self.text[*pos..end]
+            .bytes()
+            .take_while(u8::is_ascii_digit)
+            .count();
+        if digits == 0 {
+            return Ok(1);
+        }
+        let start = *pos;
+        *pos += digits;
+        match self.text[start..*pos].parse::<u32>() {
+            Ok(0) => Err(self.error(start, digits, "a multiplier of 0".into())),
+            Ok(n) if n <= MAX_MULTIPLIER => Ok(n),
+            _ => Err(self.error(
+                start,
+                digits,
+                format!("multiplier larger than {MAX_MULTIPLIER}"),
+            )),
+        }
+    }
+
+    /// The contents of a parenthesised group: a catalogue entry (possibly with a mode prefix),
+    /// or else a fragment with its own metal.
+    fn paren_group(&mut self, start: usize, end: usize, depth: usize) -> Result<Item, ParseError> {
+        let content = self.text[start..end].trim();
+        if content.is_empty() {
+            return Err(self.error(start.saturating_sub(1), 2, "empty parentheses".into()));
+        }
+        if let Some(l) = self.lookup.exact(content) {
+            return Ok(Item::Ligand(BoundLigand::new(l.clone(), 0, 1)));
+        }
+        if let Some((label, rest)) = content.split_once('-') {
+            if let Some(l) = self.lookup.exact(rest.trim()) {
+                let at = start + label.len() + 1;
+                return self.with_mode(l, label, start, at).map(Item::Ligand);
+            }
+            if looks_like_label(label) {
+                let at = start + label.len() + 1;
+                return Err(self.unknown(at, rest));
+            }
+        }
+        let has_metal = has_metal_token(content);
+        let mut p = start;
+        match self.sequence(&mut p, end, None, depth + 1) {
+            Ok(g) if g.metal_total() > 0 => Ok(Item::Group(g)),
+            Err(e) if has_metal => Err(e),
+            _ => Err(self.unknown(start, content)),
+        }
+    }
+
+    fn with_mode(
+        &self,
+        ligand: &Arc<LigandDef>,
+        label: &str,
+        label_at: usize,
+        _at: usize,
+    ) -> Result<BoundLigand, ParseError> {
+        match ligand.mode_index(label) {
+            Some(i) => Ok(BoundLigand::new(ligand.clone(), i, 1)),
+            None => Err(self
+                .error(
+                    label_at,
+                    label.len(),
+                    format!(
+                        "{} has no '{}' binding mode",
+                        ligand.key,
+                        normalize_label(label)
+                    ),
+                )
+                .with_hint(&format!("its modes are: {}", ligand.mode_labels()))),
+        }
+    }
+
+    fn unknown(&self, at: usize, token: &str) -> ParseError {
+        let mut e = self.error(at, token.len(), format!("unknown ligand '{token}'"));
+        e.suggestion = self.lookup.suggest(token);
+        e.hint = Some("`nonet ligands QUERY` searches the catalogue".into());
+        e
+    }
+
+    /// A metal symbol or catalogue token outside parentheses, with an optional mode prefix.
+    fn bare(&mut self, start: usize, end: usize) -> Result<(Item, usize), ParseError> {
+        let rest = &self.text[start..end];
+        if let Some(dash) = label_prefix(rest) {
+            let label = &rest[..dash];
+            let after = &rest[dash + 1..];
+            if let Some((l, len)) = self.ligand_token(after) {
+                let b = self.with_mode(l, label, start, start + dash + 1)?;
+                return Ok((Item::Ligand(b), dash + 1 + len));
+            }
+            let word = word_at(after);
+            return Err(self.unknown(start + dash + 1, if word.is_empty() { after } else { word }));
+        }
+        let ligand = self.ligand_token(rest);
+        let metal = element::symbol_prefix(rest);
+        let metal_len = metal.map_or(0, |m| m.symbol.len());
+        match ligand {
+            Some((l, len)) if len >= metal_len => {
+                Ok((Item::Ligand(BoundLigand::new(l.clone(), 0, 1)), len))
+            }
+            _ => match metal {
+                Some(m) => Ok((Item::Metal(m), metal_len)),
+                None => {
+                    let word = word_at(rest);
+                    let word = if word.is_empty() { &rest[..1.min(rest.len())] } else { word };
+                    if word.chars().all(|c| c.is_alphanumeric() || c == '*') {
+                        Err(self.unknown(start, word))
+                    } else {
+                        let ch = rest.chars().next().unwrap_or(' ');
+                        Err(self.error(start, ch.len_utf8(), format!("unexpected character '{ch}'")))
+                    }
+                }
+            },
+        }
+    }
+
+    /// The longest catalogue token at the start of `text`, preferring "H" + multiplier over a
+    /// token such as "H2" (so IrH2Cl is a dihydride; dihydrogen is written `(η2-H2)`).
+    fn ligand_token(&self, text: &str) -> Option<(&'a Arc<LigandDef>, usize)> {
+        let (l, len) = self.lookup.longest_prefix(text)?;
+        let matched = &text[..len];
+        let head = matched.trim_end_matches(|c: char| c.is_ascii_digit());
+        if head.len() < matched.len() && is_symbol_shaped(head) {
+            if let Some(h) = self.lookup.exact(head) {
+                return Some((h, head.len()));
+            }
+        }
+        Some((l, len))
+    }
+}
+
+impl ParseError {
+    fn with_hint(mut self, hint: &str) -> ParseError {
+        self.hint = Some(hint.to_string());
+        self
+    }
+}
+
+enum Item {
+    Metal(&'static Element),
+    Ligand(BoundLigand),
+    Group(Group),
+}
+
+/// "H", "O", "Cl": one upper-case letter and at most one lower-case one.
+fn is_symbol_shaped(s: &str) -> bool {
+    let b = s.as_bytes();
+    match b.len() {
+        1 => b[0].is_ascii_uppercase(),
+        2 => b[0].is_ascii_uppercase() && b[1].is_ascii_lowercase(),
+        _ => false,
+    }
+}
+
+/// Whether a mode prefix such as "η5", "eta5", "κ2", "mu3", "μ" begins `text` and ends in '-';
+/// returns the byte index of that '-'.
+fn label_prefix(text: &str) -> Option<usize> {
+    let dash = text.find('-')?;
+    looks_like_label(&text[..dash]).then_some(dash)
+}
+
+fn looks_like_label(label: &str) -> bool {
+    let norm = normalize_label(label);
+    let mut chars = norm.chars();
+    matches!(chars.next(), Some('η' | 'κ' | 'μ')) && chars.all(|c| c.is_ascii_digit())
+}
+
+fn has_metal_token(text: &str) -> bool {
+    text.char_indices()
+        .any(|(i, c)| c.is_ascii_uppercase() && element::symbol_prefix(&text[i..]).is_some())
+}
+
+fn word_at(text: &str) -> &str {
+    let end = text
+        .char_indices()
+        .find(|&(_, c)| !(c.is_alphanumeric() || c == '*' || c == '\''))
+        .map_or(text.len(), |(i, _)| i);
+    &text[..end]
+}

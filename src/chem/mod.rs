@@ -1,0 +1,24 @@
+//! The chemistry core: elements, ligands, complexes, the formula notation and electron
+//! counting. Pure: no terminal, no files, no clock.
+
+pub mod cluster;
+pub mod complex;
+pub mod count;
+pub mod element;
+pub mod formula;
+pub mod frac;
+pub mod ligand;
+pub mod spin;
+
+pub use complex::{BoundLigand, Complex, MetalSite};
+pub use count::{count, Report};
+pub use formula::{parse, LigandLookup, ParseError};
+pub use frac::Frac;
+pub use ligand::{BindingMode, CbcClass, FieldClass, LigandDef, Sourced};
+
+/// Errors of the chemistry core other than formula parsing.
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+pub enum ChemError {
+    #[error("'{0}' is not a CBC class: write L, X and Z with counts, in that order (e.g. L2X)")]
+    BadClass(String),
+}

@@ -1,0 +1,238 @@
+//! Likely geometry and number of unpaired electrons of one metal centre.
+//!
+//! Crystal-field reasoning as in Miessler, Fischer & Tarr, Inorganic Chemistry, 5th ed., 2014,
+//! ch. 10-11: octahedral d4-d7 choose between high and low spin by ligand field strength and
+//! metal ion; 4d and 5d metals are low spin; tetrahedral complexes are high spin; square-planar
+//! d8 is diamagnetic; metallocenes fill a1g/e2g then e1g* (19 e cobaltocene 1, 20 e nickelocene 2).
+
+use serde::Serialize;
+
+/// What the spin guess needs to know about a metal centre.
+#[derive(Debug, Clone, PartialEq)]
+pub struct SpinInput {
+    pub d: i64,
+    pub symbol: &'static str,
+    pub oxidation_state: i64,
+    pub first_row: bool,
+    pub f_block: bool,
+    /// Coordination positions taken (η5-Cp counts three).
+    pub sites: i64,
+    /// Ring ligands bound η5 or higher.
+    pub rings: u32,
+    /// Mean spectrochemical score of the ligands (see `FieldClass::score`).
+    pub field: f64,
+}
+
+/// The likely geometry and spin of a metal centre.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct SpinGuess {
+    pub geometry: &'static str,
+    /// Candidate numbers of unpaired electrons, most likely first.
+    pub unpaired: Vec<u8>,
+    pub ambiguous: bool,
+    pub basis: String,
+}
+
+/// Spin-only magnetic moment in Bohr magnetons: sqrt(n(n+2)).
+pub fn spin_only_moment(n: u8) -> f64 {
+    let n = n as f64;
+    (n * (n + 2.0)).sqrt()
+}
+
+/// Position of a 3d metal ion in the spectrochemical series of metal ions (Shriver & Atkins,
+/// Inorganic Chemistry, 3rd ed., 2001: Mn2+ < Ni2+ < Co2+ < Fe2+ < V2+ < Fe3+ < Cr3+ < V3+ <
+/// Co3+); the spacing is nonet's own heuristic.
+fn metal_ion_score(symbol: &str, os: i64) -> f64 {
+    match (symbol, os) {
+        ("Mn", 2) => 0.0,
+        ("Ni", 2) => 0.1,
+        ("Co", 2) => 0.2,
+        ("Fe", 2) => 0.3,
+        ("Cr", 2) => 0.35,
+        ("V", 2) => 0.4,
+        ("Fe", 3) => 0.6,
+        ("Cr", 3) => 0.7,
+        ("Mn", 3) | ("V", 3) => 0.8,
+        ("Co", 3) => 1.2,
+        (_, os) if os <= 2 => 0.3,
+        (_, 3) => 0.8,
+        _ => 1.2,
+    }
+}
+
+const HIGH_SPIN_OCT: [u8; 11] = [0, 1, 2, 3, 4, 5, 4, 3, 2, 1, 0];
+const LOW_SPIN_OCT: [u8; 11] = [0, 1, 2, 3, 2, 1, 0, 1, 2, 1, 0];
+/// Metallocene order: a1g and e2g (three near-degenerate levels), then e1g* (two).
+const SANDWICH: [u8; 11] = [0, 1, 2, 3, 2, 1, 0, 1, 2, 1, 0];
+
+/// Guess geometry and unpaired electrons.
+pub fn guess(input: &SpinInput) -> SpinGuess {
+    let d = input.d;
+    let geometry = geometry(input);
+    if input.f_block {
+        return SpinGuess {
+            geometry,
+            unpaired: Vec::new(),
+            ambiguous: false,
+            basis: "f-block metal: spin follows the f count and spin-orbit coupling; not estimated"
+                .into(),
+        };
+    }
+    if !(0..=10).contains(&d) {
+        return SpinGuess {
+            geometry,
+            unpaired: Vec::new(),
+            ambiguous: false,
+            basis: format!("d count {d} is outside 0-10; check the oxidation state"),
+        };
+    }
+    let du = d as usize;
+    let strength = if input.first_row {
+        input.field + metal_ion_score(input.symbol, input.oxidation_state)
+    } else {
+        10.0
+    };
+    let (hs, ls, basis): (u8, u8, &str) = match geometry {
+        "sandwich" | "bent sandwich" => (
+            HIGH_SPIN_OCT[du],
+            SANDWICH[du],
+            "metallocene levels a1g, e2g below e1g*",
+        ),
+        "tetrahedral" => (
+            tetrahedral(du),
+            tetrahedral(du),
+            "tetrahedral field is small: high spin",
+        ),
+        "square planar" => (
+            square_planar(du),
+            square_planar(du),
+            "square-planar splitting leaves dx2-y2 empty",
+        ),
+        "octahedral" | "piano stool" => (
+            HIGH_SPIN_OCT[du],
+            LOW_SPIN_OCT[du],
+            "octahedral t2g/eg filling",
+        ),
+        _ => (
+            HIGH_SPIN_OCT[du].min(if du <= 5 { du as u8 } else { 10 - du as u8 }),
+            (d % 2) as u8,
+            "no clear splitting pattern: low spin pairs all but one electron",
+        ),
+    };
+    let (unpaired, ambiguous, why) = if hs == ls {
+        (vec![ls], false, basis.to_string())
+    } else if strength >= 1.9 {
+        (
+            vec![ls],
+            false,
+            format!("{basis}; strong field or 4d/5d metal: low spin"),
+        )
+    } else if strength <= 1.3 {
+        (
+            vec![hs],
+            false,
+            format!("{basis}; weak field at a 3d metal: high spin"),
+        )
+    } else if strength >= 1.6 {
+        (
+            vec![ls, hs],
+            true,
+            format!("{basis}; intermediate field: low spin more likely"),
+        )
+    } else {
+        (
+            vec![hs, ls],
+            true,
+            format!("{basis}; intermediate field: high spin more likely"),
+        )
+    };
+    SpinGuess {
+        geometry,
+        unpaired,
+        ambiguous,
+        basis: why,
+    }
+}
+
+fn tetrahedral(d: usize) -> u8 {
+    // e below t2: high-spin filling over five orbitals
+    HIGH_SPIN_OCT[d]
+}
+
+fn square_planar(d: usize) -> u8 {
+    match d {
+        8 | 10 | 0 => 0,
+        7 | 9 => 1,
+        d => LOW_SPIN_OCT[d],
+    }
+}
+
+/// A geometry name from the number of positions, rings, d count and field.
+fn geometry(input: &SpinInput) -> &'static str {
+    if input.rings >= 2 {
+        return if input.sites > 6 {
+            "bent sandwich"
+        } else {
+            "sandwich"
+        };
+    }
+    if input.rings == 1 {
+        return "piano stool";
+    }
+    match input.sites {
+        2 => "linear",
+        3 => "trigonal planar",
+        4 => {
+            let strength = if input.first_row {
+                input.field + metal_ion_score(input.symbol, input.oxidation_state)
+            } else {
+                10.0
+            };
+            match input.d {
+                8 if strength >= 1.45 => "square planar",
+                9 if input.symbol == "Cu" => "square planar",
+                _ => "tetrahedral",
+            }
+        }
+        5 => "trigonal bipyramidal or square pyramidal",
+        6 => "octahedral",
+        7 => "seven-coordinate",
+        n if n >= 8 => "high coordination",
+        _ => "low coordination",
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn centre(symbol: &'static str, d: i64, os: i64, sites: i64, field: f64) -> SpinInput {
+        SpinInput {
+            d,
+            symbol,
+            oxidation_state: os,
+            first_row: true,
+            f_block: false,
+            sites,
+            rings: 0,
+            field,
+        }
+    }
+
+    // Spin-only formula and values: Miessler, Fischer & Tarr, Inorganic Chemistry, 5th ed., 2014.
+    #[test]
+    fn spin_only_moments() {
+        let want = [0.0, 1.73, 2.83, 3.87, 4.90, 5.92];
+        for (n, w) in want.iter().enumerate() {
+            assert!((spin_only_moment(n as u8) - w).abs() < 0.01, "n = {n}");
+        }
+    }
+
+    #[test]
+    fn intermediate_fields_are_flagged() {
+        // d6 Co(III) with an O-donor set sits between the two regimes
+        let g = guess(&centre("Co", 6, 3, 6, 0.5));
+        assert!(g.ambiguous);
+        assert_eq!(g.unpaired, vec![0, 4]);
+    }
+}

@@ -1,0 +1,278 @@
+//! The command line: clap definitions at the edge, plain requests inside, text and JSON writers.
+
+mod json;
+mod text;
+
+use std::io::{self, BufRead, BufWriter, Write};
+use std::path::PathBuf;
+
+use anyhow::Context;
+use clap::{Parser, Subcommand};
+
+use crate::catalogue::{self, Catalogue};
+use crate::chem;
+
+/// Exit statuses, part of the contract with scripts.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Status {
+    /// Everything was read and counted.
+    Ok = 0,
+    /// Something failed that is not the input's fault (I/O, a file that cannot be read).
+    Failure = 1,
+    /// Some input was rejected; its errors are on stderr, the rest of the results on stdout.
+    Rejected = 2,
+}
+
+#[derive(Debug, Parser)]
+#[command(
+    name = "nonet",
+    version,
+    about = "Electron counts, oxidation states and ligand what-ifs for transition-metal complexes",
+    after_help = "Formulas are written as in papers: CpFe(CO)2Me, [Co(NH3)6]3+, Rh2(μ-Cl)2(CO)4, \
+                  Pd(PtBu3)2. Quote them in the shell."
+)]
+pub struct Cli {
+    /// Use ASCII only: spell out eta, kappa and mu.
+    #[arg(long, global = true)]
+    pub ascii: bool,
+
+    #[command(subcommand)]
+    pub command: Option<Command>,
+}
+
+#[derive(Debug, Subcommand)]
+pub enum Command {
+    /// Count electrons under both models, with oxidation state, d count, CBC class, saturation
+    /// and spin.
+    Count {
+        /// One JSON object per formula per line (schema 1).
+        #[arg(long)]
+        json: bool,
+        /// Read formulas from FILE, one per line ('-' for standard input; '#' starts a comment).
+        #[arg(long, value_name = "FILE")]
+        batch: Option<PathBuf>,
+        /// Formulas to count.
+        #[arg(value_name = "FORMULA", allow_hyphen_values = true)]
+        formulas: Vec<String>,
+    },
+    /// List the ligand catalogue, or search it when QUERY is given.
+    Ligands {
+        /// Words to match against keys, names, formulas and aliases.
+        #[arg(value_name = "QUERY")]
+        query: Vec<String>,
+        /// One JSON object per ligand per line.
+        #[arg(long)]
+        json: bool,
+        /// Print where user ligand sets are read from, and stop.
+        #[arg(long)]
+        paths: bool,
+    },
+}
+
+/// What `count` was asked to do, free of clap types.
+pub struct CountRequest {
+    pub json: bool,
+    pub ascii: bool,
+    pub batch: Option<PathBuf>,
+    pub formulas: Vec<String>,
+}
+
+/// Parse arguments and run; returns the exit status.
+pub fn run<I, T>(args: I) -> anyhow::Result<Status>
+where
+    I: IntoIterator<Item = T>,
+    T: Into<std::ffi::OsString> + Clone,
+{
+    let cli = match Cli::try_parse_from(args) {
+        Ok(c) => c,
+        Err(e) => {
+            let code = e.exit_code();
+            e.print().context("writing the usage message")?;
+            return Ok(if code == 0 {
+                Status::Ok
+            } else {
+                Status::Rejected
+            });
+        }
+    };
+    let ascii = cli.ascii || !utf8_locale();
+    match cli.command {
+        None => {
+            use clap::CommandFactory;
+            let mut cmd = Cli::command();
+            cmd.print_help().context("writing help")?;
+            Ok(Status::Ok)
+        }
+        Some(Command::Count {
+            json,
+            batch,
+            formulas,
+        }) => count(CountRequest {
+            json,
+            ascii,
+            batch,
+            formulas,
+        }),
+        Some(Command::Ligands { query, json, paths }) => {
+            if paths {
+                return print_paths();
+            }
+            ligands(&query.join(" "), json, ascii)
+        }
+    }
+}
+
+fn load_catalogue() -> Catalogue {
+    let cat = Catalogue::with_user_dir(catalogue::user_set_dir().as_deref());
+    for w in &cat.warnings {
+        eprintln!("warning: {w}");
+    }
+    cat
+}
+
+/// Count formulas from the arguments and/or a batch file.
+pub fn count(req: CountRequest) -> anyhow::Result<Status> {
+    if req.formulas.is_empty() && req.batch.is_none() {
+        eprintln!("error: no formula given\n  try: nonet count 'CpFe(CO)2Me'  or  nonet count --batch FILE");
+        return Ok(Status::Rejected);
+    }
+    let cat = load_catalogue();
+    let stdout = io::stdout();
+    let mut out = BufWriter::with_capacity(1 << 16, stdout.lock());
+    let mut rejected = false;
+    let mut counter = Counter {
+        cat: &cat,
+        json: req.json,
+        ascii: req.ascii,
+        buf: Vec::with_capacity(4096),
+    };
+    for f in &req.formulas {
+        rejected |= !counter.one(f, None, &mut out)?;
+    }
+    if let Some(path) = &req.batch {
+        let reader: Box<dyn BufRead> = if path.as_os_str() == "-" {
+            Box::new(io::BufReader::new(io::stdin().lock()))
+        } else {
+            let file = std::fs::File::open(path)
+                .with_context(|| format!("cannot open batch file {}", path.display()))?;
+            Box::new(io::BufReader::with_capacity(1 << 16, file))
+        };
+        let mut line = String::new();
+        let mut reader = reader;
+        let mut number = 0usize;
+        loop {
+            line.clear();
+            let n = match reader.read_line(&mut line) {
+                Ok(n) => n,
+                Err(e) if e.kind() == io::ErrorKind::InvalidData => {
+                    number += 1;
+                    eprintln!("error: line {number}: not UTF-8 text; skipped");
+                    rejected = true;
+                    continue;
+                }
+                Err(e) => return Err(e).context("reading the batch input"),
+            };
+            if n == 0 {
+                break;
+            }
+            number += 1;
+            let f = line.trim();
+            if f.is_empty() || f.starts_with('#') {
+                continue;
+            }
+            rejected |= !counter.one(f, Some(number), &mut out)?;
+        }
+    }
+    out.flush().context("writing results")?;
+    Ok(if rejected {
+        Status::Rejected
+    } else {
+        Status::Ok
+    })
+}
+
+struct Counter<'a> {
+    cat: &'a Catalogue,
+    json: bool,
+    ascii: bool,
+    buf: Vec<u8>,
+}
+
+impl Counter<'_> {
+    /// Count one formula and write it; false when it was rejected.
+    fn one(&mut self, input: &str, line: Option<usize>, out: &mut impl Write) -> io::Result<bool> {
+        match chem::parse(input, self.cat) {
+            Ok(complex) => {
+                let report = chem::count(&complex);
+                if self.json {
+                    json::write_report(out, input, &report, &mut self.buf)?;
+                } else {
+                    text::write_report(out, input, &report, self.ascii)?;
+                }
+                Ok(true)
+            }
+            Err(e) => {
+                let place = line.map(|n| format!("line {n}: ")).unwrap_or_default();
+                eprintln!("error: {place}{}", e.render());
+                if self.json {
+                    json::write_error(out, input, &e)?;
+                }
+                Ok(false)
+            }
+        }
+    }
+}
+
+fn ligands(query: &str, json: bool, ascii: bool) -> anyhow::Result<Status> {
+    let cat = load_catalogue();
+    let hits = cat.search(query);
+    let stdout = io::stdout();
+    let mut out = BufWriter::new(stdout.lock());
+    if hits.is_empty() {
+        eprintln!("no ligand matches '{query}'");
+        return Ok(Status::Rejected);
+    }
+    for h in &hits {
+        if json {
+            json::write_ligand(&mut out, &h.ligand)?;
+        } else {
+            text::write_ligand(&mut out, &h.ligand, ascii)?;
+        }
+    }
+    out.flush()?;
+    Ok(Status::Ok)
+}
+
+fn print_paths() -> anyhow::Result<Status> {
+    let config = catalogue::config_dir();
+    let sets = catalogue::user_set_dir();
+    let show = |p: Option<PathBuf>| p.map_or("(no home directory found)".to_string(), |p| p.display().to_string());
+    println!("config directory:  {}", show(config));
+    println!("user ligand sets:  {}", show(sets));
+    println!("(set NONET_CONFIG_DIR to use another directory)");
+    Ok(Status::Ok)
+}
+
+/// Whether the locale promises UTF-8 output.
+fn utf8_locale() -> bool {
+    for var in ["LC_ALL", "LC_CTYPE", "LANG"] {
+        if let Ok(v) = std::env::var(var) {
+            if !v.is_empty() {
+                let v = v.to_lowercase();
+                return v.contains("utf-8") || v.contains("utf8");
+            }
+        }
+    }
+    false
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use clap::CommandFactory;
+
+    #[test]
+    fn cli_definition_is_consistent() {
+        Cli::command().debug_assert();
+    }
+}

@@ -1,0 +1,221 @@
+//! The readable report: one block per complex, a table per metal.
+
+use std::io::{self, Write};
+
+use crate::chem::count::{MetalReport, Saturation};
+use crate::chem::ligand::{ascii_label, LigandDef};
+use crate::chem::{Frac, Report};
+
+fn greek(s: &str, ascii: bool) -> String {
+    if ascii {
+        ascii_label(s).replace('°', " deg").replace('σ', "sigma").replace('π', "pi")
+    } else {
+        s.to_string()
+    }
+}
+
+fn signed(f: Frac) -> String {
+    if f > Frac::ZERO {
+        format!("+{f}")
+    } else {
+        f.to_string()
+    }
+}
+
+pub fn write_report(
+    out: &mut impl Write,
+    input: &str,
+    r: &Report,
+    ascii: bool,
+) -> io::Result<()> {
+    let formula = if ascii { ascii_label(&r.formula) } else { r.formula.clone() };
+    writeln!(out, "{formula}    (as typed: {input})")?;
+    if r.metals.len() > 1 {
+        let bonds = r
+            .metal_metal_bonds
+            .map_or("not given by the 18-electron rule".to_string(), |b| b.to_string());
+        writeln!(
+            out,
+            "  {} metals · cluster valence electrons {} · M-M bonds {}{}",
+            r.metals.len(),
+            r.cluster_valence_electrons,
+            bonds,
+            r.polyhedron.map(|p| format!(" · {p}")).unwrap_or_default()
+        )?;
+    }
+    for m in &r.metals {
+        write_metal(out, m, r.metals.len() > 1, ascii)?;
+    }
+    let spin = match r.unpaired_electrons.as_slice() {
+        [] => "not estimated".to_string(),
+        list => list
+            .iter()
+            .zip(&r.spin_only_moment_bm)
+            .map(|(n, mu)| {
+                if *n == 0 {
+                    "0 unpaired (diamagnetic)".to_string()
+                } else {
+                    format!("{n} unpaired (paramagnetic, spin-only {mu:.2} μB)")
+                }
+            })
+            .collect::<Vec<_>>()
+            .join("; or "),
+    };
+    let flag = if r.spin_ambiguous { " [ambiguous]" } else { "" };
+    writeln!(out, "  geometry: {}", r.geometry)?;
+    writeln!(out, "  spin: {}{flag}", greek(&spin, ascii))?;
+    if !r.spin_basis.is_empty() {
+        writeln!(out, "        {}", greek(&r.spin_basis, ascii))?;
+    }
+    for n in &r.notes {
+        writeln!(out, "  note: {}", greek(n, ascii))?;
+    }
+    if !r.cautions.is_empty() {
+        writeln!(out, "  cautions:")?;
+        for c in &r.cautions {
+            writeln!(out, "    ! {}", greek(c, ascii))?;
+        }
+    }
+    writeln!(out)
+}
+
+fn write_metal(out: &mut impl Write, m: &MetalReport, many: bool, ascii: bool) -> io::Result<()> {
+    let status = match m.saturation {
+        Saturation::Unsaturated => format!(
+            "unsaturated, {} e short of {} ({} open site{})",
+            m.electrons_short,
+            m.target,
+            m.open_sites,
+            if m.open_sites == 1 { "" } else { "s" }
+        ),
+        s => s.word().to_string(),
+    };
+    let each = if many { " (per metal)" } else { "" };
+    writeln!(
+        out,
+        "  {}{each}: {} e, {} · oxidation state {} · d{}",
+        m.symbol,
+        m.electron_count,
+        status,
+        signed(m.oxidation_state),
+        m.d_electrons
+    )?;
+    writeln!(
+        out,
+        "    {:<16} {:<7} {:<6} {:>8} {:>8}",
+        "ligand", "mode", "class", "neutral", "ionic"
+    )?;
+    for c in &m.contributions {
+        let name = if c.count == Frac::int(1) {
+            c.ligand.clone()
+        } else {
+            format!("{} x{}", c.ligand, c.count)
+        };
+        let mode = greek(&c.mode, ascii);
+        writeln!(
+            out,
+            "    {:<16} {:<7} {:<6} {:>8} {:>8}",
+            name,
+            mode,
+            c.class,
+            c.neutral.to_string(),
+            c.ionic.to_string()
+        )?;
+    }
+    writeln!(
+        out,
+        "    {:<16} {:<7} {:<6} {:>8} {:>8}",
+        format!("{} (group {})", m.symbol, m.group),
+        "",
+        "",
+        m.valence_electrons,
+        format!("d{}", m.d_electrons)
+    )?;
+    if m.charge_share != Frac::ZERO {
+        writeln!(
+            out,
+            "    {:<16} {:<7} {:<6} {:>8} {:>8}",
+            "charge",
+            "",
+            "",
+            (-m.charge_share).to_string(),
+            "-"
+        )?;
+    }
+    if m.metal_metal_bonds != Frac::ZERO {
+        writeln!(
+            out,
+            "    {:<16} {:<7} {:<6} {:>8} {:>8}",
+            "M-M bonds",
+            "",
+            "X",
+            m.metal_metal_bonds.to_string(),
+            m.metal_metal_bonds.to_string()
+        )?;
+    }
+    writeln!(
+        out,
+        "    {:<16} {:<7} {:<6} {:>8} {:>8}",
+        "total",
+        "",
+        "",
+        m.electron_count.to_string(),
+        m.ionic_electron_count.to_string()
+    )?;
+    writeln!(
+        out,
+        "    CBC {} (neutral class {}) · VN {} · LBN {} · coordination number {} ({} donor atoms)",
+        m.cbc_class,
+        m.equivalent_neutral_class,
+        m.valence_number,
+        m.ligand_bond_number,
+        m.coordination_number,
+        m.donor_atoms
+    )?;
+    for n in &m.notes {
+        writeln!(out, "    note: {}", greek(n, ascii))?;
+    }
+    Ok(())
+}
+
+pub fn write_ligand(out: &mut impl Write, l: &LigandDef, ascii: bool) -> io::Result<()> {
+    writeln!(out, "{}  {}  {}  [{}]", l.key, l.name, l.formula, l.family)?;
+    if !l.aliases.is_empty() {
+        writeln!(out, "    also: {}", l.aliases.join(", "))?;
+    }
+    let modes: Vec<String> = l
+        .modes
+        .iter()
+        .map(|m| {
+            format!(
+                "{} {} ({} e neutral, {} e ionic)",
+                greek(&m.label, ascii),
+                m.class,
+                m.neutral_electrons(),
+                m.ionic_electrons()
+            )
+        })
+        .collect();
+    writeln!(out, "    modes: {}", modes.join("; "))?;
+    if let Some(c) = &l.cone_angle {
+        writeln!(out, "    cone angle {}{} ({})", c.value, if ascii { " deg" } else { "°" }, c.source)?;
+    }
+    if let Some(t) = &l.tep {
+        writeln!(out, "    electronic parameter {} cm-1 ({})", t.value, t.source)?;
+    }
+    if let Some(f) = l.field {
+        writeln!(out, "    ligand field: {}", f.word())?;
+    }
+    if !l.hazards.is_empty() {
+        writeln!(
+            out,
+            "    hazards (free ligand): {} ({})",
+            l.hazards.join(", "),
+            l.hazard_source.as_deref().unwrap_or("")
+        )?;
+    }
+    if let Some(n) = &l.notes {
+        writeln!(out, "    {}", greek(n, ascii))?;
+    }
+    Ok(())
+}

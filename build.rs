@@ -21,7 +21,10 @@ fn main() {
     for f in &files {
         println!("cargo:rerun-if-changed={}", f.display());
         let name = f.file_name().and_then(|n| n.to_str()).unwrap_or("set.toml");
-        out.push_str(&format!("    ({name:?}, include_str!({:?})),\n", f.display().to_string()));
+        out.push_str(&format!(
+            "    ({name:?}, include_str!({:?})),\n",
+            f.display().to_string()
+        ));
     }
     out.push_str("];\n");
     let dest = Path::new(&env::var("OUT_DIR").expect("cargo sets OUT_DIR")).join("bundled_sets.rs");

@@ -15,17 +15,72 @@ pub struct Polyhedron {
 
 /// Common metal polyhedra and their characteristic counts.
 pub static POLYHEDRA: &[Polyhedron] = &[
-    Polyhedron { metals: 3, cve: 48, name: "triangle", edges: 3 },
-    Polyhedron { metals: 3, cve: 50, name: "open triangle (bent chain)", edges: 2 },
-    Polyhedron { metals: 4, cve: 60, name: "tetrahedron", edges: 6 },
-    Polyhedron { metals: 4, cve: 62, name: "butterfly", edges: 5 },
-    Polyhedron { metals: 4, cve: 64, name: "square", edges: 4 },
-    Polyhedron { metals: 5, cve: 72, name: "trigonal bipyramid (closo)", edges: 9 },
-    Polyhedron { metals: 5, cve: 74, name: "square pyramid (nido)", edges: 8 },
-    Polyhedron { metals: 6, cve: 84, name: "capped trigonal bipyramid", edges: 12 },
-    Polyhedron { metals: 6, cve: 86, name: "octahedron (closo)", edges: 12 },
-    Polyhedron { metals: 6, cve: 90, name: "trigonal prism", edges: 9 },
-    Polyhedron { metals: 8, cve: 120, name: "cube", edges: 12 },
+    Polyhedron {
+        metals: 3,
+        cve: 48,
+        name: "triangle",
+        edges: 3,
+    },
+    Polyhedron {
+        metals: 3,
+        cve: 50,
+        name: "open triangle (bent chain)",
+        edges: 2,
+    },
+    Polyhedron {
+        metals: 4,
+        cve: 60,
+        name: "tetrahedron",
+        edges: 6,
+    },
+    Polyhedron {
+        metals: 4,
+        cve: 62,
+        name: "butterfly",
+        edges: 5,
+    },
+    Polyhedron {
+        metals: 4,
+        cve: 64,
+        name: "square",
+        edges: 4,
+    },
+    Polyhedron {
+        metals: 5,
+        cve: 72,
+        name: "trigonal bipyramid (closo)",
+        edges: 9,
+    },
+    Polyhedron {
+        metals: 5,
+        cve: 74,
+        name: "square pyramid (nido)",
+        edges: 8,
+    },
+    Polyhedron {
+        metals: 6,
+        cve: 84,
+        name: "capped trigonal bipyramid",
+        edges: 12,
+    },
+    Polyhedron {
+        metals: 6,
+        cve: 86,
+        name: "octahedron (closo)",
+        edges: 12,
+    },
+    Polyhedron {
+        metals: 6,
+        cve: 90,
+        name: "trigonal prism",
+        edges: 9,
+    },
+    Polyhedron {
+        metals: 8,
+        cve: 120,
+        name: "cube",
+        edges: 12,
+    },
 ];
 
 /// What the counting rules expect of a polynuclear complex.

@@ -216,7 +216,10 @@ pub fn count(complex: &Complex) -> Report {
         .zip(&tallies)
         .zip(&d)
         .map(|((s, t), d)| {
-            let planar_d8 = (8..=11).contains(&s.element.group)
+            // Group 8 d8 is M(0), which clusters and carbonyls take to 18 e (Os3(CO)12): only
+            // a mononuclear group 8 centre gets the 16-e allowance.
+            let lowest_group = if complex.metal_count() == 1 { 8 } else { 9 };
+            let planar_d8 = (lowest_group..=11).contains(&s.element.group)
                 && s.element.block == Block::D
                 && d.as_int() == Some(8)
                 && t.sites == Frac::int(4);
@@ -575,6 +578,7 @@ fn centre_guess(complex: &Complex, i: usize, m: &MetalReport) -> SpinGuess {
     let Some(site) = complex.sites.get(i) else {
         return spin::guess(&SpinInput {
             d: -1,
+            electrons: -1,
             symbol: m.symbol,
             oxidation_state: 0,
             first_row: false,
@@ -601,13 +605,18 @@ fn centre_guess(complex: &Complex, i: usize, m: &MetalReport) -> SpinGuess {
     let d = m.d_electrons.as_int().unwrap_or(-1);
     spin::guess(&SpinInput {
         d,
+        electrons: m.electron_count.as_int().unwrap_or(-1),
         symbol: m.symbol,
         oxidation_state: m.oxidation_state.as_int().unwrap_or(0),
         first_row: site.element.is_first_row(),
         f_block: site.element.block == Block::F,
         sites: m.coordination_number.as_int().unwrap_or(0),
         rings,
-        field: if weight > 0.0 { field_sum / weight } else { 1.0 },
+        field: if weight > 0.0 {
+            field_sum / weight
+        } else {
+            1.0
+        },
     })
 }
 
@@ -644,9 +653,7 @@ fn collect_cautions(complex: &Complex, out: &mut Vec<String>) {
         );
     }
     if alkyl {
-        out.push(
-            "metal alkyls can be pyrophoric or react violently with water and air".into(),
-        );
+        out.push("metal alkyls can be pyrophoric or react violently with water and air".into());
     }
     if !out.is_empty() {
         out.push(

@@ -73,6 +73,7 @@ impl std::error::Error for ParseError {}
 const MAX_MULTIPLIER: u32 = 999;
 const MAX_METALS: usize = 64;
 const MAX_DEPTH: usize = 16;
+const MAX_LIGANDS: u32 = 9_999;
 
 /// Parse a formula into a canonical [`Complex`].
 pub fn parse(input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseError> {
@@ -274,7 +275,11 @@ impl<'a> Parser<'a> {
             let start = bytes.len() - 1 - d;
             (start, last, &t[start..bytes.len() - 1])
         } else if last.is_ascii_digit() {
-            let d = bytes.iter().rev().take_while(|b| b.is_ascii_digit()).count();
+            let d = bytes
+                .iter()
+                .rev()
+                .take_while(|b| b.is_ascii_digit())
+                .count();
             let s = bytes.len() - d;
             match s.checked_sub(1).map(|i| bytes[i]) {
                 Some(sign @ (b'+' | b'-')) => (s - 1, sign, &t[s..]),
@@ -286,12 +291,13 @@ impl<'a> Parser<'a> {
         let before = t[..start].trim_end();
         let spaced = before.len() < start;
         if !(before.ends_with(']') || spaced) {
-            return Err(self.error(
-                start,
-                t.len() - start,
-                "a charge must follow a closing bracket or a space".into(),
-            )
-            .with_hint("write e.g. [Co(NH3)6]3+ or Co(NH3)6 3+"));
+            return Err(self
+                .error(
+                    start,
+                    t.len() - start,
+                    "a charge must follow a closing bracket or a space".into(),
+                )
+                .with_hint("write e.g. [Co(NH3)6]3+ or Co(NH3)6 3+"));
         }
         let magnitude: i32 = if digits.is_empty() {
             1
@@ -371,8 +377,12 @@ impl<'a> Parser<'a> {
                 group.metals.extend(std::iter::repeat_n(e, n as usize));
             }
             Item::Ligand(mut b) => {
-                b.count = b.count.saturating_mul(n);
+                b.count = self.scaled(b.count, n, at)?;
                 group.ligands.push(b);
+            }
+            Item::Group(mut g) if g.metal_total() == 0 => {
+                self.scale(&mut g, n, at)?;
+                group.children.push(g);
             }
             Item::Group(g) => {
                 let inner = g.metal_total();
@@ -385,6 +395,24 @@ impl<'a> Parser<'a> {
                 }
                 group.children.push(g);
             }
+        }
+        Ok(())
+    }
+
+    fn scaled(&self, count: u32, n: u32, at: usize) -> Result<u32, ParseError> {
+        count
+            .checked_mul(n)
+            .filter(|&c| c <= MAX_LIGANDS)
+            .ok_or_else(|| self.error(at, 1, format!("more than {MAX_LIGANDS} of one ligand")))
+    }
+
+    /// Multiply every ligand count in a metal-free group (`[(CO)2]3` is six CO).
+    fn scale(&self, g: &mut Group, n: u32, at: usize) -> Result<(), ParseError> {
+        for b in &mut g.ligands {
+            b.count = self.scaled(b.count, n, at)?;
+        }
+        for c in &mut g.children {
+            self.scale(c, n, at)?;
         }
         Ok(())
     }
@@ -530,12 +558,21 @@ impl<'a> Parser<'a> {
                 Some(m) => Ok((Item::Metal(m), metal_len)),
                 None => {
                     let word = word_at(rest);
-                    let word = if word.is_empty() { &rest[..1.min(rest.len())] } else { word };
+                    let first = rest.chars().next().map_or(0, char::len_utf8);
+                    let word = if word.is_empty() {
+                        &rest[..first]
+                    } else {
+                        word
+                    };
                     if word.chars().all(|c| c.is_alphanumeric() || c == '*') {
                         Err(self.unknown(start, word))
                     } else {
                         let ch = rest.chars().next().unwrap_or(' ');
-                        Err(self.error(start, ch.len_utf8(), format!("unexpected character '{ch}'")))
+                        Err(self.error(
+                            start,
+                            ch.len_utf8(),
+                            format!("unexpected character '{ch}'"),
+                        ))
                     }
                 }
             },

@@ -246,37 +246,34 @@ fn label_parts(label: &str) -> (LabelKind, Option<u8>) {
 }
 
 /// Bring a mode label to its canonical spelling: "eta5", "h5" -> "η5"; "kappa2" -> "κ2";
-/// "mu", "mu2", "μ2", "µ" -> "μ"; "mu3" -> "μ3". Words are lower-cased.
+/// "kappaS" -> "κS"; "mu", "mu2", "μ2", "µ" -> "μ"; "mu3" -> "μ3". Words are lower-cased.
 pub fn normalize_label(label: &str) -> String {
     let l = label.trim();
-    let (greek, digits) = if let Some(d) = l.strip_prefix("eta") {
-        ('η', d)
-    } else if let Some(d) = l.strip_prefix('η') {
-        ('η', d)
-    } else if let Some(d) = l.strip_prefix("kappa") {
-        ('κ', d)
-    } else if let Some(d) = l.strip_prefix('κ') {
-        ('κ', d)
-    } else if let Some(d) = l.strip_prefix("mu") {
-        ('μ', d)
-    } else if let Some(d) = l.strip_prefix('μ').or_else(|| l.strip_prefix('µ')) {
-        ('μ', d)
-    } else if let Some(d) = l.strip_prefix('h').filter(|d| is_digits(d)) {
-        ('η', d)
-    } else {
-        return l.to_lowercase();
-    };
-    if !digits.is_empty() && !is_digits(digits) {
-        return l.to_lowercase();
+    let split = [
+        ("eta", 'η'),
+        ("η", 'η'),
+        ("kappa", 'κ'),
+        ("κ", 'κ'),
+        ("mu", 'μ'),
+        ("μ", 'μ'),
+        ("µ", 'μ'),
+        ("h", 'η'),
+    ]
+    .iter()
+    .find_map(|(prefix, greek)| {
+        let rest = l.strip_prefix(prefix)?;
+        // a Greek prefix is followed by nothing, a number or a donor atom ("κS", "κ2N")
+        let ok = match rest.chars().next() {
+            None => *prefix != "h",
+            Some(c) => c.is_ascii_digit() || (c.is_ascii_uppercase() && *prefix != "h"),
+        };
+        ok.then_some((*greek, rest))
+    });
+    match split {
+        Some(('μ', "" | "2")) => "μ".to_string(),
+        Some((greek, rest)) => format!("{greek}{rest}"),
+        None => l.to_lowercase(),
     }
-    if greek == 'μ' && (digits.is_empty() || digits == "2") {
-        return "μ".to_string();
-    }
-    format!("{greek}{digits}")
-}
-
-fn is_digits(s: &str) -> bool {
-    !s.is_empty() && s.chars().all(|c| c.is_ascii_digit())
 }
 
 /// Spell out Greek mode labels for terminals without UTF-8 ("η5" -> "eta5").
@@ -293,7 +290,9 @@ mod tests {
 
     #[test]
     fn class_strings_round_trip() {
-        for s in ["L", "X", "Z", "LX", "L2X", "X2", "L3X2", "L2X2", "L3Z", "X3"] {
+        for s in [
+            "L", "X", "Z", "LX", "L2X", "X2", "L3X2", "L2X2", "L3Z", "X3",
+        ] {
             let c = CbcClass::parse(s).unwrap();
             assert_eq!(c.to_string(), s);
         }
@@ -322,6 +321,8 @@ mod tests {
         assert_eq!(normalize_label("μ2"), "μ");
         assert_eq!(normalize_label("µ3"), "μ3");
         assert_eq!(normalize_label("Bent"), "bent");
+        assert_eq!(normalize_label("kappaS"), "κS");
+        assert_eq!(normalize_label("multi"), "multi");
         assert_eq!(ascii_label("μ3"), "mu3");
         let bridge = BindingMode::new("mu3", CbcClass::parse("L").unwrap());
         assert_eq!(bridge.bridges, 3);

@@ -11,6 +11,8 @@ use serde::Serialize;
 #[derive(Debug, Clone, PartialEq)]
 pub struct SpinInput {
     pub d: i64,
+    /// Electron count at the metal (neutral model); -1 when not whole.
+    pub electrons: i64,
     pub symbol: &'static str,
     pub oxidation_state: i64,
     pub first_row: bool,
@@ -119,7 +121,16 @@ pub fn guess(input: &SpinInput) -> SpinGuess {
             "no clear splitting pattern: low spin pairs all but one electron",
         ),
     };
-    let (unpaired, ambiguous, why) = if hs == ls {
+    // An 18-electron centre with strong-field ligands (or a 4d/5d metal) fills every bonding
+    // and nonbonding level: diamagnetic whatever the idealized geometry (CpMo(CO)3Me, d4).
+    let filled = input.electrons == 18 && (input.field >= 1.6 || !input.first_row);
+    let (unpaired, ambiguous, why) = if filled {
+        (
+            vec![0],
+            false,
+            "18 e with strong-field ligands: all bonding and nonbonding levels filled".to_string(),
+        )
+    } else if hs == ls {
         (vec![ls], false, basis.to_string())
     } else if strength >= 1.9 {
         (
@@ -209,6 +220,7 @@ mod tests {
     fn centre(symbol: &'static str, d: i64, os: i64, sites: i64, field: f64) -> SpinInput {
         SpinInput {
             d,
+            electrons: 18,
             symbol,
             oxidation_state: os,
             first_row: true,

@@ -246,7 +246,11 @@ fn ligands(query: &str, json: bool, ascii: bool) -> anyhow::Result<Status> {
 fn print_paths() -> anyhow::Result<Status> {
     let config = catalogue::config_dir();
     let sets = catalogue::user_set_dir();
-    let show = |p: Option<PathBuf>| p.map_or("(no home directory found)".to_string(), |p| p.display().to_string());
+    let show = |p: Option<PathBuf>| {
+        p.map_or("(no home directory found)".to_string(), |p| {
+            p.display().to_string()
+        })
+    };
     println!("config directory:  {}", show(config));
     println!("user ligand sets:  {}", show(sets));
     println!("(set NONET_CONFIG_DIR to use another directory)");

@@ -8,7 +8,10 @@ use crate::chem::{Frac, Report};
 
 fn greek(s: &str, ascii: bool) -> String {
     if ascii {
-        ascii_label(s).replace('°', " deg").replace('σ', "sigma").replace('π', "pi")
+        ascii_label(s)
+            .replace('°', " deg")
+            .replace('σ', "sigma")
+            .replace('π', "pi")
     } else {
         s.to_string()
     }
@@ -22,18 +25,19 @@ fn signed(f: Frac) -> String {
     }
 }
 
-pub fn write_report(
-    out: &mut impl Write,
-    input: &str,
-    r: &Report,
-    ascii: bool,
-) -> io::Result<()> {
-    let formula = if ascii { ascii_label(&r.formula) } else { r.formula.clone() };
+pub fn write_report(out: &mut impl Write, input: &str, r: &Report, ascii: bool) -> io::Result<()> {
+    let formula = if ascii {
+        ascii_label(&r.formula)
+    } else {
+        r.formula.clone()
+    };
     writeln!(out, "{formula}    (as typed: {input})")?;
     if r.metals.len() > 1 {
         let bonds = r
             .metal_metal_bonds
-            .map_or("not given by the 18-electron rule".to_string(), |b| b.to_string());
+            .map_or("not given by the 18-electron rule".to_string(), |b| {
+                b.to_string()
+            });
         writeln!(
             out,
             "  {} metals · cluster valence electrons {} · M-M bonds {}{}",
@@ -198,10 +202,20 @@ pub fn write_ligand(out: &mut impl Write, l: &LigandDef, ascii: bool) -> io::Res
         .collect();
     writeln!(out, "    modes: {}", modes.join("; "))?;
     if let Some(c) = &l.cone_angle {
-        writeln!(out, "    cone angle {}{} ({})", c.value, if ascii { " deg" } else { "°" }, c.source)?;
+        writeln!(
+            out,
+            "    cone angle {}{} ({})",
+            c.value,
+            if ascii { " deg" } else { "°" },
+            c.source
+        )?;
     }
     if let Some(t) = &l.tep {
-        writeln!(out, "    electronic parameter {} cm-1 ({})", t.value, t.source)?;
+        writeln!(
+            out,
+            "    electronic parameter {} cm-1 ({})",
+            t.value, t.source
+        )?;
     }
     if let Some(f) = l.field {
         writeln!(out, "    ligand field: {}", f.word())?;

@@ -1,0 +1,256 @@
+//! The formula notation: what it accepts, the canonical printer, and every error path.
+
+use nonet::catalogue::Catalogue;
+use nonet::chem::element::{Block, ELEMENTS};
+use nonet::chem::{parse, BoundLigand, Complex, MetalSite};
+use proptest::prelude::*;
+use std::sync::OnceLock;
+
+fn cat() -> &'static Catalogue {
+    static CAT: OnceLock<Catalogue> = OnceLock::new();
+    CAT.get_or_init(Catalogue::bundled)
+}
+
+fn canon(f: &str) -> String {
+    match parse(f, cat()) {
+        Ok(c) => c.formula(false),
+        Err(e) => panic!("{f}: {}", e.render()),
+    }
+}
+
+#[test]
+fn metal_first_and_ligands_first_read_the_same() {
+    assert_eq!(canon("CpFe(CO)2Me"), canon("[Fe(CO)2(η5-C5H5)(CH3)]"));
+    assert_eq!(canon("Cp2ZrCl2"), canon("ZrCl2Cp2"));
+    assert_eq!(canon("RhCl(PPh3)3"), canon("[Rh(PPh3)3Cl]"));
+    assert_eq!(canon("Fe(eta5-C5H5)2"), canon("Cp2Fe"));
+}
+
+#[test]
+fn greek_and_ascii_prefixes_agree() {
+    assert_eq!(canon("Rh2(μ-Cl)2(CO)4"), canon("Rh2(mu-Cl)2(CO)4"));
+    assert_eq!(canon("Rh2(µ-Cl)2(CO)4"), canon("Rh2(μ2-Cl)2(CO)4"));
+    assert_eq!(canon("(η3-C3H5)Mn(CO)4"), canon("(eta3-C3H5)Mn(CO)4"));
+}
+
+#[test]
+fn charges_after_brackets_or_spaces() {
+    let c = |f: &str| parse(f, cat()).map(|c| c.charge).map_err(|e| e.render());
+    assert_eq!(c("[Co(NH3)6]3+"), Ok(3));
+    assert_eq!(c("[ReH9]2-"), Ok(-2));
+    assert_eq!(c("[V(CO)6]-"), Ok(-1));
+    assert_eq!(c("[V(CO)6]−"), Ok(-1));
+    assert_eq!(c("[Fe(CN)6]⁴⁻"), Ok(-4));
+    assert_eq!(c("Co(NH3)6 3+"), Ok(3));
+    assert_eq!(c("[Mn(CO)6]+"), Ok(1));
+    assert_eq!(c("[Cp2Co]+1"), Ok(1));
+}
+
+#[test]
+fn bare_h2_after_a_metal_is_a_dihydride() {
+    let c = parse("IrH2Cl(CO)(PPh3)2", cat()).unwrap();
+    let h = c.sites[0]
+        .ligands
+        .iter()
+        .find(|b| b.ligand.formula == "H")
+        .expect("hydride");
+    assert_eq!(h.count, 2);
+    let d = parse("W(CO)3(PCy3)2(η2-H2)", cat()).unwrap();
+    assert!(d.sites[0].ligands.iter().any(|b| b.ligand.key == "H2"));
+}
+
+#[test]
+fn whole_catalogue_entries_win_over_element_symbols() {
+    // palladium with tri-tert-butylphosphine, not platinum
+    let c = parse("Pd(PtBu3)2", cat()).unwrap();
+    assert_eq!(c.sites.len(), 1);
+    assert_eq!(c.sites[0].element.symbol, "Pd");
+    assert_eq!(c.sites[0].ligands[0].ligand.key, "PtBu3");
+    assert_eq!(c.sites[0].ligands[0].count, 2);
+}
+
+#[test]
+fn several_metals_and_fragments() {
+    let c = parse("Os3(CO)12", cat()).unwrap();
+    assert_eq!(c.sites.len(), 3);
+    assert_eq!(c.shared[0].count, 12);
+    let dimer = parse("[CpFe(CO)2]2", cat()).unwrap();
+    assert_eq!(dimer.sites.len(), 2);
+    assert!(dimer.shared.is_empty());
+    assert_eq!(dimer.sites[0].ligands.len(), 2);
+    // a bridge written inside a fragment is moved to the shared list
+    let rh = parse("[Rh(CO)2(μ-Cl)]2", cat()).unwrap();
+    assert_eq!(rh.shared.len(), 1);
+    assert_eq!(rh.shared[0].count, 2);
+}
+
+#[test]
+fn abbreviations_from_the_catalogue() {
+    for f in [
+        "Cp*2Fe",
+        "Ni(PMe3)4",
+        "Ni(PEt3)4",
+        "Pd(PCy3)2",
+        "Ni(P(OMe)3)4",
+        "Cr(acac)3",
+        "[Ru(bpy)3]2+",
+        "[Ru(bipy)3]2+",
+        "[Fe(phen)3]2+",
+        "Ni(dppe)Cl2",
+        "Pd(dppm)Cl2",
+        "[Co(en)3]3+",
+        "[Ru(NH3)5(py)]2+",
+        "[Rh(COD)(MeCN)2]+",
+        "TiCl4(THF)2",
+        "Ti(OMe)4",
+        "[PtMe2(PPh3)2]",
+        "PtEt2(PPh3)2",
+        "PtPh2(PPh3)2",
+    ] {
+        if let Err(e) = parse(f, cat()) {
+            panic!("{f}: {}", e.render());
+        }
+    }
+}
+
+fn err(f: &str) -> nonet::chem::ParseError {
+    match parse(f, cat()) {
+        Ok(c) => panic!("{f} should fail, got {}", c.formula(false)),
+        Err(e) => e,
+    }
+}
+
+#[test]
+fn unknown_ligand_shows_position_and_nearest_entry() {
+    let e = err("Ni(PPh4)4");
+    assert_eq!(e.column, 3);
+    assert_eq!(e.width, 4);
+    assert!(e.message.contains("PPh4"));
+    assert!(e.suggestion.is_some());
+    let r = e.render();
+    assert!(r.contains("Ni(PPh4)4\n     ^^^^"), "{r}");
+    // case slip gets the exact entry back
+    assert_eq!(err("Ni(pme3)4").suggestion.as_deref(), Some("PMe3"));
+}
+
+#[test]
+fn every_error_path_says_what_and_where() {
+    let cases: &[(&str, &str, usize)] = &[
+        ("", "empty", 0),
+        ("   ", "empty", 0),
+        ("(CO)5", "no metal", 0),
+        ("[Co(NH3)6", "never closed", 0),
+        ("Co(NH3)6]", "unmatched ']'", 8),
+        ("Fe(CO))5", "unmatched ')'", 6),
+        ("Fe()5", "empty parentheses", 2),
+        ("Fe(CO)0", "multiplier of 0", 6),
+        ("Fe(CO)1000", "larger than", 6),
+        ("5Fe(CO)5", "number must follow", 0),
+        ("Fe(CO)5 %", "unexpected character", 8),
+        ("Co(NH3)63+", "charge must follow", 7),
+        ("Fe(η7-CO)5", "no 'η7' binding mode", 3),
+        ("Fe(η5-Qq)2", "unknown ligand 'Qq'", 6),
+        ("Fe(μ-CO)(CO)4", "bridges 2 metals", 0),
+        ("[Fe]99(CO)5", "more than 64 metals", 0),
+        ("[Fe(CO)4]-100", "charge too large", 9),
+    ];
+    for &(f, what, col) in cases {
+        let e = err(f);
+        assert!(
+            e.message.contains(what),
+            "{f:?}: expected '{what}' in '{}'",
+            e.message
+        );
+        assert_eq!(e.column, col, "{f:?}: column of '{}'", e.message);
+    }
+}
+
+#[test]
+fn nesting_and_huge_multipliers_are_refused_not_exploded() {
+    let deep = format!("Fe{}CO{}", "(".repeat(40), ")".repeat(40));
+    assert!(parse(&deep, cat()).is_err());
+    assert!(parse("Fe[[[[(CO)999]999]999]999]", cat()).is_err());
+    let long = "Fe".to_string() + &"(CO)".repeat(5000);
+    assert!(parse(&long, cat()).is_ok());
+}
+
+// ---------------------------------------------------------------- property tests
+
+fn d_metals() -> Vec<&'static nonet::chem::element::Element> {
+    ELEMENTS.iter().filter(|e| e.block == Block::D).collect()
+}
+
+/// A random complex: one or more metals of one element, terminal ligands on fragments or
+/// shared, and bridges when there are several metals.
+fn arb_complex() -> impl Strategy<Value = Complex> {
+    let n_lig = cat().len();
+    let n_metal = d_metals().len();
+    (
+        0..n_metal,
+        1usize..4,
+        proptest::collection::vec((0..n_lig, 0usize..4, 1u32..5), 1..6),
+        -4i32..5,
+        any::<bool>(),
+    )
+        .prop_map(move |(mi, n, groups, charge, fragments)| {
+            let metal = d_metals()[mi];
+            let mut c = Complex {
+                sites: (0..n)
+                    .map(|_| MetalSite {
+                        element: metal,
+                        ligands: Vec::new(),
+                    })
+                    .collect(),
+                shared: Vec::new(),
+                charge,
+            };
+            for (li, mi, count) in groups {
+                let l = cat().ligands()[li].clone();
+                let mode = mi % l.modes.len();
+                let m = &l.modes[mode];
+                if m.bridges as usize > n {
+                    continue;
+                }
+                let b = BoundLigand::new(l.clone(), mode, count);
+                if fragments && m.bridges == 1 {
+                    for s in &mut c.sites {
+                        s.ligands.push(b.clone());
+                    }
+                } else {
+                    c.shared.push(b);
+                }
+            }
+            c.canonicalize();
+            c
+        })
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig {
+        cases: 400,
+        failure_persistence: None,
+        ..ProptestConfig::default()
+    })]
+
+    #[test]
+    fn printed_formulas_parse_back_to_the_same_complex(c in arb_complex()) {
+        for ascii in [false, true] {
+            let text = c.formula(ascii);
+            let back = parse(&text, cat()).map_err(|e| TestCaseError::fail(e.render()))?;
+            prop_assert_eq!(&back, &c, "{}", text);
+        }
+    }
+
+    #[test]
+    fn any_text_gives_a_result_or_an_error_never_a_panic(s in "\\PC{0,40}") {
+        let _ = parse(&s, cat());
+    }
+
+    #[test]
+    fn formula_like_noise_never_panics(s in "[\\[\\]()0-9A-Za-z*+\\-ημκ ]{0,60}") {
+        if let Err(e) = parse(&s, cat()) {
+            prop_assert!(e.column <= s.chars().count());
+            let _ = e.render();
+        }
+    }
+}

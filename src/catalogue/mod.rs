@@ -5,6 +5,7 @@ mod load;
 mod search;
 
 use std::collections::HashMap;
+use std::hash::{BuildHasherDefault, Hasher};
 use std::path::{Path, PathBuf};
 use std::sync::Arc;
 
@@ -22,9 +23,9 @@ include!(concat!(env!("OUT_DIR"), "/bundled_sets.rs"));
 pub struct Catalogue {
     ligands: Vec<Arc<LigandDef>>,
     /// Formula token (key, formula, alias without spaces) -> ligand index.
-    tokens: HashMap<String, usize>,
+    tokens: HashMap<String, usize, BuildHasherDefault<Fnv>>,
     /// First byte of a token -> (token, ligand index), longest tokens first.
-    by_first: HashMap<u8, Vec<(String, usize)>>,
+    by_first: Vec<Vec<(String, usize)>>,
     /// Problems found while loading: bad files, bad entries, clashing tokens.
     pub warnings: Vec<SetError>,
     matcher: SkimMatcherV2,
@@ -109,7 +110,7 @@ impl Catalogue {
             }
         }
         let ligands: Vec<Arc<LigandDef>> = ligands.into_iter().map(Arc::new).collect();
-        let mut tokens: HashMap<String, usize> = HashMap::new();
+        let mut tokens: HashMap<String, usize, BuildHasherDefault<Fnv>> = HashMap::default();
         for (i, l) in ligands.iter().enumerate() {
             for t in formula_tokens(l) {
                 match tokens.get(t) {
@@ -130,13 +131,13 @@ impl Catalogue {
                 }
             }
         }
-        let mut by_first: HashMap<u8, Vec<(String, usize)>> = HashMap::new();
+        let mut by_first: Vec<Vec<(String, usize)>> = vec![Vec::new(); 256];
         for (t, &i) in &tokens {
             if let Some(&b) = t.as_bytes().first() {
-                by_first.entry(b).or_default().push((t.clone(), i));
+                by_first[b as usize].push((t.clone(), i));
             }
         }
-        for list in by_first.values_mut() {
+        for list in &mut by_first {
             list.sort_by(|a, b| b.0.len().cmp(&a.0.len()).then(a.0.cmp(&b.0)));
         }
         Catalogue {
@@ -165,6 +166,30 @@ impl Catalogue {
     }
 }
 
+/// FNV-1a: formula tokens are a few bytes long, where it beats the default SipHash by far and
+/// needs no protection against crafted keys (the keys come from ligand sets).
+#[derive(Default)]
+pub struct Fnv(u64);
+
+impl Hasher for Fnv {
+    fn finish(&self) -> u64 {
+        self.0
+    }
+
+    fn write(&mut self, bytes: &[u8]) {
+        let mut h = if self.0 == 0 {
+            0xcbf2_9ce4_8422_2325
+        } else {
+            self.0
+        };
+        for &b in bytes {
+            h ^= b as u64;
+            h = h.wrapping_mul(0x0100_0000_01b3);
+        }
+        self.0 = h;
+    }
+}
+
 fn bundled_texts() -> Vec<(String, String)> {
     BUNDLED
         .iter()
@@ -187,10 +212,14 @@ impl LigandLookup for Catalogue {
 
     fn longest_prefix(&self, text: &str) -> Option<(&Arc<LigandDef>, usize)> {
         let first = *text.as_bytes().first()?;
-        self.by_first
-            .get(&first)?
+        let second = text.as_bytes().get(1).copied();
+        self.by_first[first as usize]
             .iter()
-            .find(|(t, _)| text.starts_with(t.as_str()))
+            .find(|(t, _)| {
+                let tb = t.as_bytes();
+                // compare the second byte first: most candidates fail there, without a memcmp
+                (tb.len() == 1 || tb.get(1).copied() == second) && text.starts_with(t.as_str())
+            })
             .map(|(t, i)| (&self.ligands[*i], t.len()))
     }
 

@@ -4,6 +4,7 @@
 use std::sync::Arc;
 
 use super::element::Element;
+use super::frac::push_int;
 use super::ligand::{ascii_label, BindingMode, LigandDef};
 
 /// A ligand group bound in one mode, `count` times.
@@ -60,7 +61,18 @@ impl BoundLigand {
         self.mode != 0 || m.hapticity().is_some() || m.bridges > 1
     }
 
-    fn write(&self, out: &mut String, ascii: bool) {
+    /// Single-atom X or L ligands in their default mode (Cl, H, O) print without parentheses,
+    /// as chemists write them, unless the previous group also did (N then O would read as NO).
+    fn write(&self, out: &mut String, ascii: bool, prev_bare: &mut bool) {
+        let bare = !*prev_bare && !self.shows_label() && is_symbol_shaped(&self.ligand.key);
+        *prev_bare = bare;
+        if bare {
+            out.push_str(&self.ligand.key);
+            if self.count != 1 {
+                push_int(out, self.count as i64);
+            }
+            return;
+        }
         out.push('(');
         if self.shows_label() {
             let label = &self.mode().label;
@@ -74,7 +86,7 @@ impl BoundLigand {
         out.push_str(&self.ligand.key);
         out.push(')');
         if self.count != 1 {
-            out.push_str(&self.count.to_string());
+            push_int(out, self.count as i64);
         }
     }
 }
@@ -142,12 +154,13 @@ impl Complex {
                 }
                 out.push('[');
                 out.push_str(self.sites[i].element.symbol);
+                let mut bare = false;
                 for b in &self.sites[i].ligands {
-                    b.write(&mut out, ascii);
+                    b.write(&mut out, ascii, &mut bare);
                 }
                 out.push(']');
                 if j - i > 1 {
-                    out.push_str(&(j - i).to_string());
+                    push_int(&mut out, (j - i) as i64);
                 }
                 i = j;
             }
@@ -161,45 +174,66 @@ impl Complex {
                 }
                 out.push_str(sym);
                 if j - i > 1 {
-                    out.push_str(&(j - i).to_string());
+                    push_int(&mut out, (j - i) as i64);
                 }
                 i = j;
             }
+            let mut bare = false;
             for site in &self.sites {
                 for b in &site.ligands {
-                    b.write(&mut out, ascii);
+                    b.write(&mut out, ascii, &mut bare);
                 }
             }
         }
+        let mut bare = false;
         for b in &self.shared {
-            b.write(&mut out, ascii);
+            b.write(&mut out, ascii, &mut bare);
         }
         out.push(']');
-        out.push_str(&charge_text(self.charge));
+        push_charge(&mut out, self.charge as i64);
         out
     }
 }
 
 /// "", "+", "2-", ... as written after a closing bracket.
 pub fn charge_text(charge: i32) -> String {
-    match charge {
-        0 => String::new(),
-        1 => "+".into(),
-        -1 => "-".into(),
-        c if c > 0 => format!("{c}+"),
-        c => format!("{}-", -c),
+    let mut s = String::new();
+    push_charge(&mut s, charge as i64);
+    s
+}
+
+/// Append "", "+", "2-", ... without the formatting machinery (this runs for every count).
+pub fn push_charge(s: &mut String, c: i64) {
+    if c == 0 {
+        return;
+    }
+    if c.abs() != 1 {
+        push_int(s, c.abs());
+    }
+    s.push(if c > 0 { '+' } else { '-' });
+}
+
+/// "H", "Cl", "O": one upper-case letter and at most one lower-case one.
+fn is_symbol_shaped(s: &str) -> bool {
+    let b = s.as_bytes();
+    match b.len() {
+        1 => b[0].is_ascii_uppercase(),
+        2 => b[0].is_ascii_uppercase() && b[1].is_ascii_lowercase(),
+        _ => false,
     }
 }
 
 fn tidy(list: &mut Vec<BoundLigand>) {
-    let mut merged: Vec<BoundLigand> = Vec::with_capacity(list.len());
-    for b in list.drain(..) {
-        match merged.iter_mut().find(|m| m.same_kind(&b)) {
-            Some(m) => m.count = m.count.saturating_add(b.count),
-            None => merged.push(b),
+    let mut i = 0;
+    while i < list.len() {
+        if let Some(j) = list[..i].iter().position(|m| m.same_kind(&list[i])) {
+            let extra = list[i].count;
+            list[j].count = list[j].count.saturating_add(extra);
+            list.remove(i);
+        } else {
+            i += 1;
         }
     }
-    merged.retain(|b| b.count > 0);
-    merged.sort_by(|a, b| a.rank().cmp(&b.rank()));
-    *list = merged;
+    list.retain(|b| b.count > 0);
+    list.sort_by(|a, b| a.rank().cmp(&b.rank()));
 }

@@ -2,13 +2,17 @@
 //! CBC class (Green, J. Organomet. Chem. 1995, 500, 127; Green & Parkin, J. Chem. Educ. 2014,
 //! 91, 807), coordination and saturation, for every metal of a complex.
 
+use std::sync::Arc;
+
+use serde::ser::{SerializeStruct, Serializer};
 use serde::Serialize;
 
 use super::cluster::{self, ClusterView};
-use super::complex::{charge_text, BoundLigand, Complex};
+use super::complex::{push_charge, BoundLigand, Complex};
 use super::element::Block;
 use super::frac::Frac;
-use super::spin::{self, SpinGuess, SpinInput};
+use super::ligand::{BindingMode, LigandDef};
+use super::spin::{self, Basis, SpinGuess, SpinInput};
 
 /// Whether a metal has the electrons its type usually wants.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
@@ -22,6 +26,16 @@ pub enum Saturation {
 }
 
 impl Saturation {
+    /// The JSON word, part of the schema.
+    pub fn code(self) -> &'static str {
+        match self {
+            Saturation::Saturated => "saturated",
+            Saturation::Unsaturated => "unsaturated",
+            Saturation::Above18 => "above_18",
+            Saturation::NotApplicable => "not_applicable",
+        }
+    }
+
     pub fn word(self) -> &'static str {
         match self {
             Saturation::Saturated => "saturated",
@@ -33,18 +47,90 @@ impl Saturation {
 }
 
 /// One ligand group's share in a metal's count.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq)]
 pub struct Contribution {
-    pub ligand: String,
-    pub name: String,
-    pub mode: String,
-    pub class: String,
+    pub ligand: Arc<LigandDef>,
+    pub mode: usize,
     /// How many of this ligand the metal has (a fraction when shared between metals).
     pub count: Frac,
     pub neutral: Frac,
     pub ionic: Frac,
     pub ionic_charge: Frac,
     pub shared: bool,
+}
+
+impl Contribution {
+    pub fn mode(&self) -> &BindingMode {
+        self.ligand
+            .modes
+            .get(self.mode)
+            .unwrap_or(&self.ligand.modes[0])
+    }
+}
+
+impl Serialize for Contribution {
+    fn serialize<S: Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
+        let m = self.mode();
+        let mut st = s.serialize_struct("Contribution", 8)?;
+        st.serialize_field("ligand", &self.ligand.key)?;
+        st.serialize_field("mode", &m.label)?;
+        st.serialize_field("class", &m.class)?;
+        st.serialize_field("count", &self.count)?;
+        st.serialize_field("neutral", &self.neutral)?;
+        st.serialize_field("ionic", &self.ionic)?;
+        st.serialize_field("ionic_charge", &self.ionic_charge)?;
+        st.serialize_field("shared", &self.shared)?;
+        st.end()
+    }
+}
+
+/// GHS hazard statements of a hazardous free ligand in the complex.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Hazard(pub Arc<LigandDef>);
+
+impl Serialize for Hazard {
+    fn serialize<S: Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
+        let mut st = s.serialize_struct("Hazard", 2)?;
+        st.serialize_field("ligand", &self.0.key)?;
+        st.serialize_field("ghs", &self.0.hazards)?;
+        st.end()
+    }
+}
+
+/// A general caution about the complex. JSON carries the code, the text report the sentence.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum Caution {
+    MetalCarbonyl,
+    MetalAlkyl,
+    /// Deferral to the people and documents that decide whether work is safe.
+    ConsultSds,
+}
+
+impl Caution {
+    /// The JSON word, part of the schema.
+    pub fn code(self) -> &'static str {
+        match self {
+            Caution::MetalCarbonyl => "metal-carbonyl",
+            Caution::MetalAlkyl => "metal-alkyl",
+            Caution::ConsultSds => "consult-sds",
+        }
+    }
+
+    pub fn text(self) -> &'static str {
+        match self {
+            Caution::MetalCarbonyl => {
+                "metal carbonyls can release carbon monoxide; several are volatile and highly toxic"
+            }
+            Caution::MetalAlkyl => {
+                "metal alkyls can be pyrophoric or react violently with water and air"
+            }
+            Caution::ConsultSds => {
+                "consult the supplier's safety data sheet and local rules; nonet plans on paper \
+                 and never judges whether a reaction is safe"
+            }
+        }
+    }
 }
 
 /// Everything counted for one metal.
@@ -65,13 +151,17 @@ pub struct MetalReport {
     pub ligand_bond_number: Frac,
     /// d count from the CBC class: group minus valence number.
     pub cbc_d_electrons: Frac,
-    /// Electron count from the CBC class, m + 2l + x (minus any charge left on the metal).
+    /// Electron count from the CBC class, m + 2l + x (minus any charge left on the metal); a
+    /// cross-check that equals `electron_count`, not part of the JSON.
+    #[serde(skip)]
     pub cbc_electron_count: Frac,
     pub saturation: Saturation,
     pub target: u8,
     pub electrons_short: Frac,
     pub open_sites: i64,
     pub metal_metal_bonds: Frac,
+    /// This metal's share of the complex's charge (internal; not part of the JSON).
+    #[serde(skip)]
     pub charge_share: Frac,
     pub contributions: Vec<Contribution>,
     pub notes: Vec<String>,
@@ -90,8 +180,12 @@ pub struct Report {
     pub unpaired_electrons: Vec<u8>,
     pub spin_only_moment_bm: Vec<f64>,
     pub spin_ambiguous: bool,
-    pub spin_basis: String,
-    pub cautions: Vec<String>,
+    pub spin_basis: Basis,
+    /// Hazardous free ligands with their GHS statements.
+    pub hazards: Vec<Hazard>,
+    /// General cautions (metal carbonyls, metal alkyls) and, when any caution applies, the
+    /// deferral to the safety data sheet and local rules.
+    pub cautions: Vec<Caution>,
     pub notes: Vec<String>,
 }
 
@@ -108,12 +202,23 @@ struct Tally {
     z: Frac,
     sites: Frac,
     donors: Frac,
+    field_sum: f64,
+    field_weight: f64,
     pi_donor: Vec<String>,
     bulky: Vec<(String, f64)>,
     contributions: Vec<Contribution>,
 }
 
 impl Tally {
+    /// Mean spectrochemical score, weighted by positions taken; medium when nothing is known.
+    fn field(&self) -> f64 {
+        if self.field_weight > 0.0 {
+            self.field_sum / self.field_weight
+        } else {
+            1.0
+        }
+    }
+
     fn new() -> Tally {
         Tally {
             neutral: Frac::ZERO,
@@ -124,6 +229,8 @@ impl Tally {
             z: Frac::ZERO,
             sites: Frac::ZERO,
             donors: Frac::ZERO,
+            field_sum: 0.0,
+            field_weight: 0.0,
             pi_donor: Vec::new(),
             bulky: Vec::new(),
             contributions: Vec::new(),
@@ -150,6 +257,11 @@ impl Tally {
             } else {
                 m.donors as i64
             };
+        if let Some(f) = b.ligand.field {
+            let w = (count * m.sites as i64).to_f64();
+            self.field_sum += f.score() * w;
+            self.field_weight += w;
+        }
         if b.ligand.pi_donor && !self.pi_donor.contains(&b.ligand.key) {
             self.pi_donor.push(b.ligand.key.clone());
         }
@@ -159,10 +271,8 @@ impl Tally {
             }
         }
         self.contributions.push(Contribution {
-            ligand: b.ligand.key.clone(),
-            name: b.ligand.name.clone(),
-            mode: m.label.clone(),
-            class: m.class.to_string(),
+            ligand: b.ligand.clone(),
+            mode: b.mode,
             count,
             neutral,
             ionic,
@@ -222,7 +332,13 @@ pub fn count(complex: &Complex) -> Report {
             let planar_d8 = (lowest_group..=11).contains(&s.element.group)
                 && s.element.block == Block::D
                 && d.as_int() == Some(8)
-                && t.sites == Frac::int(4);
+                && t.sites == Frac::int(4)
+                && spin::square_planar_d8(
+                    s.element.symbol,
+                    s.element.is_first_row(),
+                    (-*d + s.element.valence as i64).floor(),
+                    t.field(),
+                );
             if planar_d8 {
                 16
             } else {
@@ -286,8 +402,7 @@ pub fn count(complex: &Complex) -> Report {
         .collect();
 
     let mut notes = view.notes.clone();
-    let mut cautions = Vec::new();
-    collect_cautions(complex, &mut cautions);
+    let (hazards, cautions) = collect_cautions(complex);
     if complex.metal_count() >= 2 && bond_total > 0 && carbonyl_may_bridge(complex) {
         notes.push(
             "where CO bridges the metals (as in Fe2(CO)9 and solid Co2(CO)8) bonding analyses find \
@@ -319,6 +434,7 @@ pub fn count(complex: &Complex) -> Report {
         spin_only_moment_bm: moments,
         spin_ambiguous: ambiguous,
         spin_basis: basis,
+        hazards,
         cautions,
         notes,
     }
@@ -405,7 +521,7 @@ fn metal_report(
     };
     if target == 16 {
         notes.push(
-            "square-planar d8 (groups 8-11) is stable at 16 e; it can still add a ligand or an \
+            "square-planar d8 is stable at 16 e; it can still add a ligand or an \
              oxidant to reach 18 e"
                 .into(),
         );
@@ -511,25 +627,31 @@ fn equivalent_neutral(l: Frac, x: Frac, z: Frac, q: Frac) -> (Frac, Frac, Frac, 
 }
 
 fn class_text(symbol: &str, l: Frac, x: Frac, z: Frac, q: Frac) -> String {
-    let mut s = format!("[{symbol}");
-    for (letter, n) in [("L", l), ("X", x), ("Z", z)] {
+    let mut s = String::with_capacity(16);
+    s.push('[');
+    s.push_str(symbol);
+    for (letter, n) in [('L', l), ('X', x), ('Z', z)] {
         if n == Frac::ZERO {
             continue;
         }
-        s.push_str(letter);
+        s.push(letter);
         if n != Frac::int(1) {
-            s.push_str(&n.to_string());
+            n.push_to(&mut s);
         }
     }
     s.push(']');
     match q.as_int() {
-        Some(c) => s.push_str(&charge_text(c as i32)),
-        None => s.push_str(&format!("({q})")),
+        Some(c) => push_charge(&mut s, c),
+        None => {
+            s.push('(');
+            q.push_to(&mut s);
+            s.push(')');
+        }
     }
     s
 }
 
-type SpinSummary = (&'static str, Vec<u8>, bool, String);
+type SpinSummary = (&'static str, Vec<u8>, bool, Basis);
 
 fn spin_of(complex: &Complex, metals: &[MetalReport], cve: Frac, bonds: u32) -> SpinSummary {
     if complex.metal_count() >= 2 {
@@ -544,7 +666,10 @@ fn spin_of(complex: &Complex, metals: &[MetalReport], cve: Frac, bonds: u32) -> 
                 "polynuclear",
                 unpaired,
                 false,
-                "metal-metal bonded: from the parity of the cluster count".into(),
+                Basis(
+                    "metal-metal bonded: from the parity of the cluster count",
+                    None,
+                ),
             );
         }
         let mut total = 0u8;
@@ -556,11 +681,14 @@ fn spin_of(complex: &Complex, metals: &[MetalReport], cve: Frac, bonds: u32) -> 
             "polynuclear",
             vec![total],
             true,
-            "metals without M-M bonds: sum of the centres, ignoring magnetic coupling".into(),
+            Basis(
+                "metals without M-M bonds: sum of the centres, ignoring magnetic coupling",
+                None,
+            ),
         );
     }
     let Some(m) = metals.first() else {
-        return ("unknown", Vec::new(), false, String::new());
+        return ("unknown", Vec::new(), false, Basis("no metal", None));
     };
     let g = centre_guess(complex, 0, m);
     (g.geometry, g.unpaired, g.ambiguous, g.basis)
@@ -621,45 +749,27 @@ fn centre_guess(complex: &Complex, i: usize, m: &MetalReport) -> SpinGuess {
 }
 
 /// GHS hazards of the free ligands, and the general cautions for metal carbonyls and alkyls.
-fn collect_cautions(complex: &Complex, out: &mut Vec<String>) {
-    let mut seen: Vec<&str> = Vec::new();
+fn collect_cautions(complex: &Complex) -> (Vec<Hazard>, Vec<Caution>) {
+    let mut hazards: Vec<Hazard> = Vec::new();
     let mut carbonyl = false;
     let mut alkyl = false;
     for (_, b) in complex.all_ligands() {
         let l = &b.ligand;
         carbonyl |= l.key == "CO";
         alkyl |= l.family == "alkyl";
-        if l.hazards.is_empty() || seen.contains(&l.key.as_str()) {
-            continue;
+        if !l.hazards.is_empty() && !hazards.iter().any(|h| h.0.key == l.key) {
+            hazards.push(Hazard(l.clone()));
         }
-        seen.push(&l.key);
-        let src = l
-            .hazard_source
-            .as_deref()
-            .map(|s| format!(" ({s})"))
-            .unwrap_or_default();
-        out.push(format!(
-            "{} ({}), free ligand: {}{}",
-            l.key,
-            l.name,
-            l.hazards.join(", "),
-            src
-        ));
     }
+    let mut cautions = Vec::new();
     if carbonyl {
-        out.push(
-            "metal carbonyls can release carbon monoxide; several are volatile and highly toxic"
-                .into(),
-        );
+        cautions.push(Caution::MetalCarbonyl);
     }
     if alkyl {
-        out.push("metal alkyls can be pyrophoric or react violently with water and air".into());
+        cautions.push(Caution::MetalAlkyl);
     }
-    if !out.is_empty() {
-        out.push(
-            "consult the supplier's safety data sheet and local rules; nonet plans on paper and \
-             never judges whether a reaction is safe"
-                .into(),
-        );
+    if !hazards.is_empty() || !cautions.is_empty() {
+        cautions.push(Caution::ConsultSds);
     }
+    (hazards, cautions)
 }

@@ -127,7 +127,20 @@ pub static ELEMENTS: &[Element] = &[
 
 /// Look a metal up by its exact (case-sensitive) symbol.
 pub fn by_symbol(symbol: &str) -> Option<&'static Element> {
-    ELEMENTS.iter().find(|e| e.symbol == symbol)
+    let code = symbol_code(symbol.as_bytes())?;
+    ELEMENTS
+        .iter()
+        .find(|e| symbol_code(e.symbol.as_bytes()) == Some(code))
+}
+
+/// A one- or two-letter symbol packed into an integer, so look-ups compare numbers, not
+/// strings (the parser asks for every bare token).
+fn symbol_code(b: &[u8]) -> Option<u16> {
+    match b {
+        [a] => Some((*a as u16) << 8),
+        [a, c] => Some((*a as u16) << 8 | *c as u16),
+        _ => None,
+    }
 }
 
 /// The metal symbol at the start of `text`, if any: two letters are preferred over one.

@@ -7,6 +7,7 @@
 //! catalogue through [`LigandLookup`]; inside parentheses a whole catalogue entry wins over
 //! element symbols, so `Pd(PtBu3)2` is palladium with two tri-tert-butylphosphines.
 
+use std::borrow::Cow;
 use std::fmt;
 use std::sync::Arc;
 
@@ -81,7 +82,7 @@ pub fn parse(input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseErr
     let mut p = Parser {
         input,
         text: &text,
-        cols: &cols,
+        cols: cols.as_deref(),
         lookup,
         metals: 0,
     };
@@ -129,8 +130,11 @@ pub fn parse(input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseErr
 }
 
 /// Map look-alike characters onto the ones the grammar uses, remembering each character's
-/// column in the original text.
-fn normalize(input: &str) -> (String, Vec<usize>) {
+/// column in the original text (None: plain ASCII, columns unchanged).
+fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
+    if input.bytes().all(|b| b.is_ascii() && b != b'\t') {
+        return (Cow::Borrowed(input), None);
+    }
     const SUPER: &str = "⁰¹²³⁴⁵⁶⁷⁸⁹";
     const SUB: &str = "₀₁₂₃₄₅₆₇₈₉";
     let mut text = String::with_capacity(input.len());
@@ -154,7 +158,7 @@ fn normalize(input: &str) -> (String, Vec<usize>) {
         text.push(mapped);
         cols.push(col);
     }
-    (text, cols)
+    (Cow::Owned(text), Some(cols))
 }
 
 /// A parsed group before the metals and ligands are laid out.
@@ -221,7 +225,7 @@ fn flatten(group: Group, complex: &mut Complex) {
 struct Parser<'a> {
     input: &'a str,
     text: &'a str,
-    cols: &'a [usize],
+    cols: Option<&'a [usize]>,
     lookup: &'a dyn LigandLookup,
     metals: usize,
 }
@@ -229,10 +233,13 @@ struct Parser<'a> {
 impl<'a> Parser<'a> {
     fn column(&self, byte: usize) -> usize {
         let idx = self.text[..byte.min(self.text.len())].chars().count();
-        self.cols
-            .get(idx)
-            .copied()
-            .unwrap_or_else(|| self.input.chars().count())
+        match self.cols {
+            None => idx,
+            Some(cols) => cols
+                .get(idx)
+                .copied()
+                .unwrap_or_else(|| self.input.chars().count()),
+        }
     }
 
     fn error(&self, byte: usize, width_bytes: usize, message: String) -> ParseError {

@@ -8,7 +8,7 @@ use super::ChemError;
 
 /// The CBC functions a ligand presents to the metal(s): L (2-electron dative), X (1-electron
 /// covalent), Z (0-electron acceptor).
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Default, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Default)]
 pub struct CbcClass {
     pub l: u8,
     pub x: u8,
@@ -57,6 +57,13 @@ impl CbcClass {
 
     pub fn functions(self) -> u8 {
         self.l + self.x + self.z
+    }
+}
+
+/// Serialized as its text, "L2X".
+impl Serialize for CbcClass {
+    fn serialize<S: serde::Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
+        s.collect_str(self)
     }
 }
 
@@ -133,6 +140,9 @@ pub struct BindingMode {
     /// A 3c-2e M-H-M bridge: one electron to the cluster, one M-M edge satisfied.
     pub three_centre: bool,
     pub note: Option<String>,
+    /// n of an ηn label (n >= 2), worked out once from the label.
+    #[serde(skip)]
+    hapto: Option<u8>,
 }
 
 impl BindingMode {
@@ -153,7 +163,12 @@ impl BindingMode {
             LabelKind::Eta if n.unwrap_or(1) >= 2 => class.functions().max(1),
             _ => 1,
         };
+        let hapto = match (kind, n) {
+            (LabelKind::Eta, Some(n)) if n >= 2 => Some(n),
+            _ => None,
+        };
         BindingMode {
+            hapto,
             ionic_charge: -(class.x as i8),
             label,
             class,
@@ -176,10 +191,7 @@ impl BindingMode {
 
     /// Hapticity of a π-bound ligand (η2 and up), if this mode is one.
     pub fn hapticity(&self) -> Option<u8> {
-        match label_parts(&self.label) {
-            (LabelKind::Eta, Some(n)) if n >= 2 => Some(n),
-            _ => None,
-        }
+        self.hapto
     }
 }
 

@@ -32,7 +32,26 @@ pub struct SpinGuess {
     /// Candidate numbers of unpaired electrons, most likely first.
     pub unpaired: Vec<u8>,
     pub ambiguous: bool,
-    pub basis: String,
+    pub basis: Basis,
+}
+
+/// Why a spin guess was made: the splitting pattern and, where it mattered, the field regime.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct Basis(pub &'static str, pub Option<&'static str>);
+
+impl std::fmt::Display for Basis {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        match self.1 {
+            Some(r) => write!(f, "{}; {r}", self.0),
+            None => f.write_str(self.0),
+        }
+    }
+}
+
+impl Serialize for Basis {
+    fn serialize<S: serde::Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
+        s.collect_str(self)
+    }
 }
 
 /// Spin-only magnetic moment in Bohr magnetons: sqrt(n(n+2)).
@@ -76,8 +95,10 @@ pub fn guess(input: &SpinInput) -> SpinGuess {
             geometry,
             unpaired: Vec::new(),
             ambiguous: false,
-            basis: "f-block metal: spin follows the f count and spin-orbit coupling; not estimated"
-                .into(),
+            basis: Basis(
+                "f-block metal: spin follows the f count and spin-orbit coupling; not estimated",
+                None,
+            ),
         };
     }
     if !(0..=10).contains(&d) {
@@ -85,7 +106,15 @@ pub fn guess(input: &SpinInput) -> SpinGuess {
             geometry,
             unpaired: Vec::new(),
             ambiguous: false,
-            basis: format!("d count {d} is outside 0-10; check the oxidation state"),
+            basis: Basis("d count outside 0-10: check the oxidation state", None),
+        };
+    }
+    if d == 0 || d == 10 {
+        return SpinGuess {
+            geometry,
+            unpaired: vec![0],
+            ambiguous: false,
+            basis: Basis("d0 or d10: no unpaired d electrons", None),
         };
     }
     let du = d as usize;
@@ -128,33 +157,36 @@ pub fn guess(input: &SpinInput) -> SpinGuess {
         (
             vec![0],
             false,
-            "18 e with strong-field ligands: all bonding and nonbonding levels filled".to_string(),
+            Basis(
+                "18 e with strong-field ligands: all bonding and nonbonding levels filled",
+                None,
+            ),
         )
     } else if hs == ls {
-        (vec![ls], false, basis.to_string())
+        (vec![ls], false, Basis(basis, None))
     } else if strength >= 1.9 {
         (
             vec![ls],
             false,
-            format!("{basis}; strong field or 4d/5d metal: low spin"),
+            Basis(basis, Some("strong field or 4d/5d metal: low spin")),
         )
     } else if strength <= 1.3 {
         (
             vec![hs],
             false,
-            format!("{basis}; weak field at a 3d metal: high spin"),
+            Basis(basis, Some("weak field at a 3d metal: high spin")),
         )
     } else if strength >= 1.6 {
         (
             vec![ls, hs],
             true,
-            format!("{basis}; intermediate field: low spin more likely"),
+            Basis(basis, Some("intermediate field: low spin more likely")),
         )
     } else {
         (
             vec![hs, ls],
             true,
-            format!("{basis}; intermediate field: high spin more likely"),
+            Basis(basis, Some("intermediate field: high spin more likely")),
         )
     };
     SpinGuess {
@@ -178,6 +210,13 @@ fn square_planar(d: usize) -> u8 {
     }
 }
 
+/// Whether a four-coordinate d8 centre is square planar rather than tetrahedral: always for
+/// 4d/5d metals (Pd(II), Pt(II), Rh(I), Ir(I), Au(III)); for 3d metals only with a strong enough
+/// field ([Ni(CN)4]2- is planar, [NiCl4]2- tetrahedral; Miessler, Fischer & Tarr 2014).
+pub fn square_planar_d8(symbol: &str, first_row: bool, oxidation_state: i64, field: f64) -> bool {
+    !first_row || field + metal_ion_score(symbol, oxidation_state) >= 1.45
+}
+
 /// A geometry name from the number of positions, rings, d count and field.
 fn geometry(input: &SpinInput) -> &'static str {
     if input.rings >= 2 {
@@ -193,18 +232,19 @@ fn geometry(input: &SpinInput) -> &'static str {
     match input.sites {
         2 => "linear",
         3 => "trigonal planar",
-        4 => {
-            let strength = if input.first_row {
-                input.field + metal_ion_score(input.symbol, input.oxidation_state)
-            } else {
-                10.0
-            };
-            match input.d {
-                8 if strength >= 1.45 => "square planar",
-                9 if input.symbol == "Cu" => "square planar",
-                _ => "tetrahedral",
+        4 => match input.d {
+            8 if square_planar_d8(
+                input.symbol,
+                input.first_row,
+                input.oxidation_state,
+                input.field,
+            ) =>
+            {
+                "square planar"
             }
-        }
+            9 if input.symbol == "Cu" => "square planar",
+            _ => "tetrahedral",
+        },
         5 => "trigonal bipyramidal or square pyramidal",
         6 => "octahedral",
         7 => "seven-coordinate",

@@ -4,29 +4,23 @@ use std::io::{self, Write};
 
 use serde::Serialize;
 
+use super::jsonw;
 use crate::chem::ligand::LigandDef;
 use crate::chem::{ParseError, Report};
 
 /// Version of the JSON shape written by `count` and `ligands`.
 pub const SCHEMA: u32 = 1;
+const _: () = assert!(
+    SCHEMA == 1,
+    "append_report writes the schema number literally"
+);
 
-/// `{"schema":1,"input":...,` followed by the report's own fields.
-pub fn write_report(
-    out: &mut impl Write,
-    input: &str,
-    report: &Report,
-    buf: &mut Vec<u8>,
-) -> io::Result<()> {
-    buf.clear();
-    write!(buf, "{{\"schema\":{SCHEMA},\"input\":")?;
-    serde_json::to_writer(&mut *buf, input)?;
-    buf.push(b',');
-    let start = buf.len();
-    serde_json::to_writer(&mut *buf, report)?;
-    // drop the report's opening brace: its fields continue the object begun above
-    buf.remove(start);
+/// Append `{"schema":1,"input":...,` with the report's own fields, one line.
+pub fn append_report(buf: &mut Vec<u8>, input: &str, report: &Report) {
+    buf.extend_from_slice(b"{\"schema\":1,\"input\":");
+    jsonw::string(buf, input);
+    jsonw::report_fields(buf, report);
     buf.push(b'\n');
-    out.write_all(buf)
 }
 
 #[derive(Serialize)]
@@ -122,4 +116,38 @@ pub fn write_ligand(out: &mut impl Write, l: &LigandDef) -> io::Result<()> {
     };
     serde_json::to_writer(&mut *out, &line)?;
     out.write_all(b"\n")
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::catalogue::Catalogue;
+    use crate::chem::{count, parse};
+
+    /// The hand-written writer must give exactly what serde would: same keys, same values.
+    #[test]
+    fn hand_written_json_equals_serde_rendering() {
+        let cat = Catalogue::bundled();
+        for f in [
+            "CpFe(CO)2Me",
+            "Rh6(CO)16",
+            "[Cr2(μ-H)(CO)10]-",
+            "Pd(PtBu3)2",
+            "[Co(NH3)6]3+",
+            "Fe2(CO)9",
+            "UCp3Cl",
+            "[Fe(H2O)6]2+",
+        ] {
+            let c = parse(f, &cat).unwrap_or_else(|e| panic!("{}", e.render()));
+            let r = count(&c);
+            let mut line = Vec::new();
+            append_report(&mut line, f, &r);
+            let ours: serde_json::Value = serde_json::from_slice(&line).unwrap();
+            let mut theirs = serde_json::to_value(&r).unwrap();
+            let obj = theirs.as_object_mut().unwrap();
+            obj.insert("schema".into(), SCHEMA.into());
+            obj.insert("input".into(), f.into());
+            assert_eq!(ours, theirs, "{f}");
+        }
+    }
 }

@@ -1,6 +1,7 @@
 //! The command line: clap definitions at the edge, plain requests inside, text and JSON writers.
 
 mod json;
+mod jsonw;
 mod text;
 
 use std::io::{self, BufRead, BufWriter, Write};
@@ -144,7 +145,7 @@ pub fn count(req: CountRequest) -> anyhow::Result<Status> {
         cat: &cat,
         json: req.json,
         ascii: req.ascii,
-        buf: Vec::with_capacity(4096),
+        buf: Vec::with_capacity(1 << 17),
     };
     for f in &req.formulas {
         rejected |= !counter.one(f, None, &mut out)?;
@@ -183,6 +184,7 @@ pub fn count(req: CountRequest) -> anyhow::Result<Status> {
             rejected |= !counter.one(f, Some(number), &mut out)?;
         }
     }
+    counter.flush(&mut out).context("writing results")?;
     out.flush().context("writing results")?;
     Ok(if rejected {
         Status::Rejected
@@ -199,13 +201,24 @@ struct Counter<'a> {
 }
 
 impl Counter<'_> {
+    /// Write out JSON lines gathered so far (records are batched to save a copy each).
+    fn flush(&mut self, out: &mut impl Write) -> io::Result<()> {
+        out.write_all(&self.buf)?;
+        self.buf.clear();
+        Ok(())
+    }
+
     /// Count one formula and write it; false when it was rejected.
     fn one(&mut self, input: &str, line: Option<usize>, out: &mut impl Write) -> io::Result<bool> {
         match chem::parse(input, self.cat) {
             Ok(complex) => {
                 let report = chem::count(&complex);
                 if self.json {
-                    json::write_report(out, input, &report, &mut self.buf)?;
+                    json::append_report(&mut self.buf, input, &report);
+                    if self.buf.len() >= 1 << 16 {
+                        out.write_all(&self.buf)?;
+                        self.buf.clear();
+                    }
                 } else {
                     text::write_report(out, input, &report, self.ascii)?;
                 }
@@ -215,6 +228,7 @@ impl Counter<'_> {
                 let place = line.map(|n| format!("line {n}: ")).unwrap_or_default();
                 eprintln!("error: {place}{}", e.render());
                 if self.json {
+                    self.flush(out)?;
                     json::write_error(out, input, &e)?;
                 }
                 Ok(false)

@@ -68,16 +68,29 @@ pub fn write_report(out: &mut impl Write, input: &str, r: &Report, ascii: bool) 
     let flag = if r.spin_ambiguous { " [ambiguous]" } else { "" };
     writeln!(out, "  geometry: {}", r.geometry)?;
     writeln!(out, "  spin: {}{flag}", greek(&spin, ascii))?;
-    if !r.spin_basis.is_empty() {
-        writeln!(out, "        {}", greek(&r.spin_basis, ascii))?;
-    }
+    writeln!(out, "        {}", greek(&r.spin_basis.to_string(), ascii))?;
     for n in &r.notes {
         writeln!(out, "  note: {}", greek(n, ascii))?;
     }
     if !r.cautions.is_empty() {
         writeln!(out, "  cautions:")?;
+        for h in &r.hazards {
+            let l = &h.0;
+            let src = l
+                .hazard_source
+                .as_deref()
+                .map(|s| format!(" ({s})"))
+                .unwrap_or_default();
+            writeln!(
+                out,
+                "    ! {} ({}), free ligand: {}{src}",
+                l.key,
+                l.name,
+                l.hazards.join(", ")
+            )?;
+        }
         for c in &r.cautions {
-            writeln!(out, "    ! {}", greek(c, ascii))?;
+            writeln!(out, "    ! {}", c.text())?;
         }
     }
     writeln!(out)
@@ -111,17 +124,17 @@ fn write_metal(out: &mut impl Write, m: &MetalReport, many: bool, ascii: bool) -
     )?;
     for c in &m.contributions {
         let name = if c.count == Frac::int(1) {
-            c.ligand.clone()
+            c.ligand.key.clone()
         } else {
-            format!("{} x{}", c.ligand, c.count)
+            format!("{} x{}", c.ligand.key, c.count)
         };
-        let mode = greek(&c.mode, ascii);
+        let mode = greek(&c.mode().label, ascii);
         writeln!(
             out,
             "    {:<16} {:<7} {:<6} {:>8} {:>8}",
             name,
             mode,
-            c.class,
+            c.mode().class.to_string(),
             c.neutral.to_string(),
             c.ionic.to_string()
         )?;

@@ -1,15 +1,10 @@
 //! The formula notation: what it accepts, the canonical printer, and every error path.
 
-use nonet::catalogue::Catalogue;
-use nonet::chem::element::{Block, ELEMENTS};
-use nonet::chem::{parse, BoundLigand, Complex, MetalSite};
-use proptest::prelude::*;
-use std::sync::OnceLock;
+mod common;
 
-fn cat() -> &'static Catalogue {
-    static CAT: OnceLock<Catalogue> = OnceLock::new();
-    CAT.get_or_init(Catalogue::bundled)
-}
+use common::{arb_complex, cat};
+use nonet::chem::parse;
+use proptest::prelude::*;
 
 fn canon(f: &str) -> String {
     match parse(f, cat()) {
@@ -175,56 +170,6 @@ fn nesting_and_huge_multipliers_are_refused_not_exploded() {
 }
 
 // ---------------------------------------------------------------- property tests
-
-fn d_metals() -> Vec<&'static nonet::chem::element::Element> {
-    ELEMENTS.iter().filter(|e| e.block == Block::D).collect()
-}
-
-/// A random complex: one or more metals of one element, terminal ligands on fragments or
-/// shared, and bridges when there are several metals.
-fn arb_complex() -> impl Strategy<Value = Complex> {
-    let n_lig = cat().len();
-    let n_metal = d_metals().len();
-    (
-        0..n_metal,
-        1usize..4,
-        proptest::collection::vec((0..n_lig, 0usize..4, 1u32..5), 1..6),
-        -4i32..5,
-        any::<bool>(),
-    )
-        .prop_map(move |(mi, n, groups, charge, fragments)| {
-            let metal = d_metals()[mi];
-            let mut c = Complex {
-                sites: (0..n)
-                    .map(|_| MetalSite {
-                        element: metal,
-                        ligands: Vec::new(),
-                    })
-                    .collect(),
-                shared: Vec::new(),
-                charge,
-            };
-            for (li, mi, count) in groups {
-                let l = cat().ligands()[li].clone();
-                let mode = mi % l.modes.len();
-                let m = &l.modes[mode];
-                if m.bridges as usize > n {
-                    continue;
-                }
-                let b = BoundLigand::new(l.clone(), mode, count);
-                if fragments && m.bridges == 1 {
-                    for s in &mut c.sites {
-                        s.ligands.push(b.clone());
-                    }
-                } else {
-                    c.shared.push(b);
-                }
-            }
-            c.canonicalize();
-            c
-        })
-}
-
 proptest! {
     #![proptest_config(ProptestConfig {
         cases: 400,

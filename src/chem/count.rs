@@ -326,15 +326,12 @@ pub fn count(complex: &Complex) -> Report {
         .zip(&tallies)
         .zip(&d)
         .map(|((s, t), d)| {
-            // Group 8 d8 is M(0), which clusters and carbonyls take to 18 e (Os3(CO)12): only
-            // a mononuclear group 8 centre gets the 16-e allowance.
-            let lowest_group = if complex.metal_count() == 1 { 8 } else { 9 };
-            let planar_d8 = (lowest_group..=11).contains(&s.element.group)
-                && s.element.block == Block::D
+            let planar_d8 = s.element.block == Block::D
                 && d.as_int() == Some(8)
                 && t.sites == Frac::int(4)
                 && spin::square_planar_d8(
                     s.element.symbol,
+                    s.element.group,
                     s.element.is_first_row(),
                     (-*d + s.element.valence as i64).floor(),
                     t.field(),
@@ -401,6 +398,19 @@ pub fn count(complex: &Complex) -> Report {
         })
         .collect();
 
+    let mut metals = metals;
+    if view.bonds.is_none() {
+        // a delocalized cluster: per-metal counts say little, the cluster count says it all
+        for m in &mut metals {
+            m.saturation = Saturation::NotApplicable;
+            m.electrons_short = Frac::ZERO;
+            m.open_sites = 0;
+            m.notes.push(
+                "delocalized cluster: judge it by the cluster valence electron count, not per metal"
+                    .into(),
+            );
+        }
+    }
     let mut notes = view.notes.clone();
     let (hazards, cautions) = collect_cautions(complex);
     if complex.metal_count() >= 2 && bond_total > 0 && carbonyl_may_bridge(complex) {
@@ -417,7 +427,8 @@ pub fn count(complex: &Complex) -> Report {
         ));
     }
 
-    let (geometry, unpaired, ambiguous, basis) = spin_of(complex, &metals, cve, bond_total);
+    let (geometry, unpaired, ambiguous, basis) =
+        spin_of(complex, &metals, cve, bond_total, view.polyhedron.is_some());
     let moments = unpaired
         .iter()
         .map(|&u| (spin::spin_only_moment(u) * 100.0).round() / 100.0)
@@ -653,24 +664,28 @@ fn class_text(symbol: &str, l: Frac, x: Frac, z: Frac, q: Frac) -> String {
 
 type SpinSummary = (&'static str, Vec<u8>, bool, Basis);
 
-fn spin_of(complex: &Complex, metals: &[MetalReport], cve: Frac, bonds: u32) -> SpinSummary {
+fn spin_of(
+    complex: &Complex,
+    metals: &[MetalReport],
+    cve: Frac,
+    bonds: u32,
+    polyhedron: bool,
+) -> SpinSummary {
     if complex.metal_count() >= 2 {
-        if bonds > 0 || metals.iter().all(|m| m.saturation == Saturation::Saturated) {
+        let bonded = bonds > 0 || polyhedron;
+        if bonded || metals.iter().all(|m| m.saturation == Saturation::Saturated) {
             let odd = cve.as_int().map(|c| c % 2 != 0);
             let unpaired = match odd {
                 Some(true) => vec![1],
                 Some(false) => vec![0],
                 None => Vec::new(),
             };
-            return (
-                "polynuclear",
-                unpaired,
-                false,
-                Basis(
-                    "metal-metal bonded: from the parity of the cluster count",
-                    None,
-                ),
-            );
+            let why = if bonded {
+                "metal-metal bonded: from the parity of the cluster count"
+            } else {
+                "every metal saturated: from the parity of the cluster count"
+            };
+            return ("polynuclear", unpaired, false, Basis(why, None));
         }
         let mut total = 0u8;
         for (site, m) in complex.sites.iter().zip(metals) {
@@ -708,6 +723,7 @@ fn centre_guess(complex: &Complex, i: usize, m: &MetalReport) -> SpinGuess {
             d: -1,
             electrons: -1,
             symbol: m.symbol,
+            group: m.group,
             oxidation_state: 0,
             first_row: false,
             f_block: false,
@@ -735,6 +751,7 @@ fn centre_guess(complex: &Complex, i: usize, m: &MetalReport) -> SpinGuess {
         d,
         electrons: m.electron_count.as_int().unwrap_or(-1),
         symbol: m.symbol,
+        group: m.group,
         oxidation_state: m.oxidation_state.as_int().unwrap_or(0),
         first_row: site.element.is_first_row(),
         f_block: site.element.block == Block::F,

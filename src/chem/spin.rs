@@ -14,6 +14,7 @@ pub struct SpinInput {
     /// Electron count at the metal (neutral model); -1 when not whole.
     pub electrons: i64,
     pub symbol: &'static str,
+    pub group: u8,
     pub oxidation_state: i64,
     pub first_row: bool,
     pub f_block: bool,
@@ -164,6 +165,16 @@ pub fn guess(input: &SpinInput) -> SpinGuess {
         )
     } else if hs == ls {
         (vec![ls], false, Basis(basis, None))
+    } else if matches!(geometry, "sandwich" | "bent sandwich") && strength < 2.1 {
+        // Mn(II) metallocenes sit at the crossover: Cp2Mn is high spin, Cp*2Mn low spin
+        (
+            vec![ls, hs],
+            true,
+            Basis(
+                basis,
+                Some("weak-field metal ion: high and low spin both known"),
+            ),
+        )
     } else if strength >= 1.9 {
         (
             vec![ls],
@@ -213,8 +224,18 @@ fn square_planar(d: usize) -> u8 {
 /// Whether a four-coordinate d8 centre is square planar rather than tetrahedral: always for
 /// 4d/5d metals (Pd(II), Pt(II), Rh(I), Ir(I), Au(III)); for 3d metals only with a strong enough
 /// field ([Ni(CN)4]2- is planar, [NiCl4]2- tetrahedral; Miessler, Fischer & Tarr 2014).
-pub fn square_planar_d8(symbol: &str, first_row: bool, oxidation_state: i64, field: f64) -> bool {
-    !first_row || field + metal_ion_score(symbol, oxidation_state) >= 1.45
+///
+/// Only groups 9-11 qualify: a group 8 d8 centre is M(0) (Fe(CO)4 is a bent triplet fragment,
+/// and Fe, Ru, Os carbonyls go on to 18 e).
+pub fn square_planar_d8(
+    symbol: &str,
+    group: u8,
+    first_row: bool,
+    oxidation_state: i64,
+    field: f64,
+) -> bool {
+    (9..=11).contains(&group)
+        && (!first_row || field + metal_ion_score(symbol, oxidation_state) >= 1.45)
 }
 
 /// A geometry name from the number of positions, rings, d count and field.
@@ -235,6 +256,7 @@ fn geometry(input: &SpinInput) -> &'static str {
         4 => match input.d {
             8 if square_planar_d8(
                 input.symbol,
+                input.group,
                 input.first_row,
                 input.oxidation_state,
                 input.field,
@@ -262,6 +284,7 @@ mod tests {
             d,
             electrons: 18,
             symbol,
+            group: 9,
             oxidation_state: os,
             first_row: true,
             f_block: false,

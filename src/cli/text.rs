@@ -47,8 +47,15 @@ pub fn write_report(out: &mut impl Write, input: &str, r: &Report, ascii: bool) 
             r.polyhedron.map(|p| format!(" · {p}")).unwrap_or_default()
         )?;
     }
-    for m in &r.metals {
-        write_metal(out, m, r.metals.len() > 1, ascii)?;
+    // equivalent metals (the usual case for homometallic clusters) are shown once
+    let mut i = 0;
+    while i < r.metals.len() {
+        let same = r.metals[i..]
+            .iter()
+            .take_while(|m| **m == r.metals[i])
+            .count();
+        write_metal(out, &r.metals[i], r.metals.len() > 1, same, ascii)?;
+        i += same;
     }
     let spin = match r.unpaired_electrons.as_slice() {
         [] => "not estimated".to_string(),
@@ -96,7 +103,13 @@ pub fn write_report(out: &mut impl Write, input: &str, r: &Report, ascii: bool) 
     writeln!(out)
 }
 
-fn write_metal(out: &mut impl Write, m: &MetalReport, many: bool, ascii: bool) -> io::Result<()> {
+fn write_metal(
+    out: &mut impl Write,
+    m: &MetalReport,
+    many: bool,
+    same: usize,
+    ascii: bool,
+) -> io::Result<()> {
     let status = match m.saturation {
         Saturation::Unsaturated => format!(
             "unsaturated, {} e short of {} ({} open site{})",
@@ -107,7 +120,11 @@ fn write_metal(out: &mut impl Write, m: &MetalReport, many: bool, ascii: bool) -
         ),
         s => s.word().to_string(),
     };
-    let each = if many { " (per metal)" } else { "" };
+    let each = match (many, same) {
+        (false, _) => String::new(),
+        (true, 1) => " (this metal)".to_string(),
+        (true, n) => format!(" (each of {n})"),
+    };
     writeln!(
         out,
         "  {}{each}: {} e, {} · oxidation state {} · d{}",

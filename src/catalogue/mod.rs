@@ -29,6 +29,8 @@ pub struct Catalogue {
     /// Problems found while loading: bad files, bad entries, clashing tokens.
     pub warnings: Vec<SetError>,
     matcher: SkimMatcherV2,
+    /// Lower-case search text per ligand (see `search::haystack`).
+    haystacks: Vec<String>,
 }
 
 impl Catalogue {
@@ -140,12 +142,14 @@ impl Catalogue {
         for list in &mut by_first {
             list.sort_by(|a, b| b.0.len().cmp(&a.0.len()).then(a.0.cmp(&b.0)));
         }
+        let haystacks = ligands.iter().map(|l| search::haystack(l)).collect();
         Catalogue {
             ligands,
             tokens,
             by_first,
             warnings,
             matcher: SkimMatcherV2::default(),
+            haystacks,
         }
     }
 

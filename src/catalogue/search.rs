@@ -15,36 +15,65 @@ pub struct Hit {
 }
 
 impl Catalogue {
-    /// Ligands matching `query` in key, name, formula or aliases, best first; ties by key so the
+    /// Ligands matching `query` in key, name, formula, aliases or family, best first; ties by key so the
     /// order is stable. An empty query lists everything in catalogue order.
     pub fn search(&self, query: &str) -> Vec<Hit> {
+        self.filter(query, |_| true, None)
+            .into_iter()
+            .map(|(i, score)| Hit {
+                ligand: self.ligands[i].clone(),
+                score,
+            })
+            .collect()
+    }
+
+    /// Indices (with scores) of the ligands that pass `keep` and match `query`, best first.
+    /// `within` narrows the scan to earlier results, which is how typing one more letter refines
+    /// a search without rescanning the catalogue.
+    pub fn filter(
+        &self,
+        query: &str,
+        keep: impl Fn(&LigandDef) -> bool,
+        within: Option<&[usize]>,
+    ) -> Vec<(usize, i64)> {
         let query = query.trim();
+        let all: Vec<usize>;
+        let candidates: &[usize] = match within {
+            Some(w) => w,
+            None => {
+                all = (0..self.ligands.len()).collect();
+                &all
+            }
+        };
         if query.is_empty() {
-            return self
-                .ligands
+            return candidates
                 .iter()
-                .map(|l| Hit {
-                    ligand: l.clone(),
-                    score: 0,
-                })
+                .filter(|&&i| keep(&self.ligands[i]))
+                .map(|&i| (i, 0))
                 .collect();
         }
-        let mut hits: Vec<Hit> = self
-            .ligands
+        let lower = query.to_lowercase();
+        let mut hits: Vec<(usize, i64)> = candidates
             .iter()
-            .filter_map(|l| {
-                self.score(l, query).map(|score| Hit {
-                    ligand: l.clone(),
-                    score,
-                })
-            })
+            .filter(|&&i| keep(&self.ligands[i]) && subsequence(&lower, &self.haystacks[i]))
+            .filter_map(|&i| self.score(&self.ligands[i], query).map(|s| (i, s)))
             .collect();
         hits.sort_by(|a, b| {
-            b.score
-                .cmp(&a.score)
-                .then_with(|| a.ligand.key.cmp(&b.ligand.key))
+            b.1.cmp(&a.1)
+                .then_with(|| self.ligands[a.0].key.cmp(&self.ligands[b.0].key))
         });
         hits
+    }
+
+    /// Character positions of `query` in `text`, for highlighting the rows on screen.
+    pub fn match_positions(&self, text: &str, query: &str) -> Vec<usize> {
+        if query.trim().is_empty() {
+            return Vec::new();
+        }
+        self.matcher
+            .fuzzy_indices(text, query.trim())
+            .map(|(_, idx)| idx)
+            .unwrap_or_default()
     }
 
     /// Best score of `query` over a ligand's names; exact key or alias matches rank first.
@@ -52,7 +81,8 @@ impl Catalogue {
         let fields = std::iter::once(l.key.as_str())
             .chain(std::iter::once(l.name.as_str()))
             .chain(std::iter::once(l.formula.as_str()))
-            .chain(l.aliases.iter().map(String::as_str));
+            .chain(l.aliases.iter().map(String::as_str))
+            .chain(std::iter::once(l.family.as_str()));
         let mut best: Option<i64> = None;
         for (i, f) in fields.enumerate() {
             let bonus = if f.eq_ignore_ascii_case(query) {
@@ -69,6 +99,31 @@ impl Catalogue {
         }
         best
     }
+}
+
+/// Whether the characters of `needle` (lower case) appear in order in `hay` (lower case): a
+/// cheap test that rules out most ligands before the fuzzy matcher scores the rest.
+fn subsequence(needle: &str, hay: &str) -> bool {
+    let mut hay = hay.chars();
+    needle
+        .chars()
+        .filter(|c| !c.is_whitespace())
+        .all(|n| hay.by_ref().any(|h| h == n))
+}
+
+/// The lower-case text searched for a ligand: key, name, formula and aliases.
+pub fn haystack(l: &LigandDef) -> String {
+    let mut s = String::with_capacity(64);
+    for part in std::iter::once(&l.key)
+        .chain(std::iter::once(&l.name))
+        .chain(std::iter::once(&l.formula))
+        .chain(l.aliases.iter())
+        .chain(std::iter::once(&l.family))
+    {
+        s.push_str(&part.to_lowercase());
+        s.push(' ');
+    }
+    s
 }
 
 /// The nearest known formula token to `token`: a case-insensitive match, else the closest by

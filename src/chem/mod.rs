@@ -4,11 +4,14 @@
 pub mod cluster;
 pub mod complex;
 pub mod count;
+pub mod edit;
 pub mod element;
 pub mod formula;
 pub mod frac;
 pub mod ligand;
+pub mod preview;
 pub mod spin;
+pub mod sterics;
 
 pub use complex::{BoundLigand, Complex, MetalSite};
 pub use count::{count, Report};

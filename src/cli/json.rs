@@ -44,6 +44,25 @@ pub fn write_error(out: &mut impl Write, input: &str, e: &ParseError) -> io::Res
     out.write_all(b"\n")
 }
 
+/// `{"schema":1,"input":...,"error":...}` for input rejected before parsing.
+pub fn write_message(out: &mut impl Write, input: &str, error: &str) -> io::Result<()> {
+    #[derive(Serialize)]
+    struct Line<'a> {
+        schema: u32,
+        input: &'a str,
+        error: &'a str,
+    }
+    serde_json::to_writer(
+        &mut *out,
+        &Line {
+            schema: SCHEMA,
+            input,
+            error,
+        },
+    )?;
+    out.write_all(b"\n")
+}
+
 #[derive(Serialize)]
 struct ModeLine<'a> {
     label: &'a str,

@@ -53,7 +53,7 @@ pub enum Command {
         #[arg(long, value_name = "FILE")]
         batch: Option<PathBuf>,
         /// Formulas to count.
-        #[arg(value_name = "FORMULA", allow_hyphen_values = true)]
+        #[arg(value_name = "FORMULA")]
         formulas: Vec<String>,
     },
     /// List the ligand catalogue, or search it when QUERY is given.
@@ -158,26 +158,38 @@ pub fn count(req: CountRequest) -> anyhow::Result<Status> {
                 .with_context(|| format!("cannot open batch file {}", path.display()))?;
             Box::new(io::BufReader::with_capacity(1 << 16, file))
         };
-        let mut line = String::new();
+        let mut raw: Vec<u8> = Vec::new();
         let mut reader = reader;
         let mut number = 0usize;
         loop {
-            line.clear();
-            let n = match reader.read_line(&mut line) {
-                Ok(n) => n,
-                Err(e) if e.kind() == io::ErrorKind::InvalidData => {
-                    number += 1;
-                    eprintln!("error: line {number}: not UTF-8 text; skipped");
-                    rejected = true;
-                    continue;
-                }
-                Err(e) => return Err(e).context("reading the batch input"),
-            };
+            raw.clear();
+            let n = reader
+                .read_until(b'\n', &mut raw)
+                .context("reading the batch input")?;
             if n == 0 {
                 break;
             }
             number += 1;
-            let f = line.trim();
+            let mut bytes = raw.as_slice();
+            if number == 1 {
+                // a byte-order mark from a Windows editor or spreadsheet export
+                bytes = bytes.strip_prefix(b"\xef\xbb\xbf").unwrap_or(bytes);
+            }
+            let text = match std::str::from_utf8(bytes) {
+                Ok(t) => t,
+                Err(_) => {
+                    let lossy = String::from_utf8_lossy(bytes);
+                    let shown = lossy.trim();
+                    eprintln!("error: line {number}: not UTF-8 text: {shown}");
+                    if counter.json {
+                        counter.flush(&mut out)?;
+                        json::write_message(&mut out, shown, "not UTF-8 text")?;
+                    }
+                    rejected = true;
+                    continue;
+                }
+            };
+            let f = text.trim();
             if f.is_empty() || f.starts_with('#') {
                 continue;
             }
@@ -226,7 +238,12 @@ impl Counter<'_> {
             }
             Err(e) => {
                 let place = line.map(|n| format!("line {n}: ")).unwrap_or_default();
-                eprintln!("error: {place}{}", e.render());
+                let msg = format!("error: {place}{}", e.render());
+                if self.ascii {
+                    eprintln!("{}", text::ascii_text(&msg));
+                } else {
+                    eprintln!("{msg}");
+                }
                 if self.json {
                     self.flush(out)?;
                     json::write_error(out, input, &e)?;

@@ -25,7 +25,18 @@ fn signed(f: Frac) -> String {
     }
 }
 
+/// The readable report; with `ascii` every character is plain ASCII.
 pub fn write_report(out: &mut impl Write, input: &str, r: &Report, ascii: bool) -> io::Result<()> {
+    if ascii {
+        let mut buf = Vec::new();
+        report(&mut buf, input, r, true)?;
+        out.write_all(ascii_text(&String::from_utf8_lossy(&buf)).as_bytes())
+    } else {
+        report(out, input, r, false)
+    }
+}
+
+fn report(out: &mut impl Write, input: &str, r: &Report, ascii: bool) -> io::Result<()> {
     let formula = if ascii {
         ascii_label(&r.formula)
     } else {
@@ -212,7 +223,18 @@ fn write_metal(
     Ok(())
 }
 
+/// One catalogue entry; with `ascii` every character is plain ASCII.
 pub fn write_ligand(out: &mut impl Write, l: &LigandDef, ascii: bool) -> io::Result<()> {
+    if ascii {
+        let mut buf = Vec::new();
+        ligand(&mut buf, l, true)?;
+        out.write_all(ascii_text(&String::from_utf8_lossy(&buf)).as_bytes())
+    } else {
+        ligand(out, l, false)
+    }
+}
+
+fn ligand(out: &mut impl Write, l: &LigandDef, ascii: bool) -> io::Result<()> {
     writeln!(out, "{}  {}  {}  [{}]", l.key, l.name, l.formula, l.family)?;
     if !l.aliases.is_empty() {
         writeln!(out, "    also: {}", l.aliases.join(", "))?;
@@ -262,4 +284,74 @@ pub fn write_ligand(out: &mut impl Write, l: &LigandDef, ascii: bool) -> io::Res
         writeln!(out, "    {}", greek(n, ascii))?;
     }
     Ok(())
+}
+
+/// Spell out or replace every non-ASCII character, for terminals and locales without UTF-8.
+pub fn ascii_text(s: &str) -> String {
+    let mut out = String::with_capacity(s.len() + 16);
+    for c in s.chars() {
+        if c.is_ascii() {
+            out.push(c);
+            continue;
+        }
+        let r: &str = match c {
+            'η' => "eta",
+            'κ' => "kappa",
+            'μ' | 'µ' => "mu",
+            'α' => "alpha",
+            'β' => "beta",
+            'γ' => "gamma",
+            'δ' => "delta",
+            'σ' => "sigma",
+            'π' => "pi",
+            'ν' => "nu",
+            'θ' => "theta",
+            'Δ' => "Delta",
+            'Ω' => "Omega",
+            '·' | '•' => "-",
+            '×' => "x",
+            '−' | '–' | '—' => "-",
+            '→' => "->",
+            '←' => "<-",
+            '↔' => "<->",
+            '≡' => "#",
+            '≈' => "~",
+            '≤' => "<=",
+            '≥' => ">=",
+            '±' => "+/-",
+            '°' => " deg",
+            '⁺' => "+",
+            '⁻' => "-",
+            '✓' => "ok",
+            '…' => "...",
+            '‘' | '’' => "'",
+            '“' | '”' => "\"",
+            '\u{feff}' => "",
+            c => {
+                if let Some(d) = "⁰¹²³⁴⁵⁶⁷⁸⁹".chars().position(|s| s == c) {
+                    out.push(char::from(b'0' + d as u8));
+                    continue;
+                }
+                if let Some(d) = "₀₁₂₃₄₅₆₇₈₉".chars().position(|s| s == c) {
+                    out.push(char::from(b'0' + d as u8));
+                    continue;
+                }
+                "?"
+            }
+        };
+        out.push_str(r);
+    }
+    out
+}
+
+#[cfg(test)]
+mod tests {
+    use super::ascii_text;
+
+    #[test]
+    fn ascii_text_is_ascii() {
+        let s = ascii_text("[Fe(η5-Cp)2] · 18 e · cone 145° · β-H → μ3 ≡ ×2 ₂ ⁴⁻ 中");
+        assert!(s.is_ascii(), "{s}");
+        assert!(s.contains("eta5") && s.contains("mu3") && s.contains("145 deg"));
+    }
 }

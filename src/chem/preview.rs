@@ -1,0 +1,214 @@
+//! What an edit would change, worked out before it is committed: counts under both models,
+//! oxidation state, d count, saturation and open sites, crowding from cone angles, the shift in
+//! donor strength, spin, hazards of an entering ligand and the likely substitution mechanism.
+
+use std::sync::Arc;
+
+use super::complex::Complex;
+use super::count::{count, Report, Saturation};
+use super::edit::{apply, Edit, EditError, Slot};
+use super::ligand::LigandDef;
+use super::sterics::{crowding, Crowding};
+
+/// How a substitution at this metal most likely goes.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Mechanism {
+    /// 18-e complexes lose a ligand first (D).
+    Dissociative,
+    /// 16-e and lower complexes take the incoming ligand first (A).
+    Associative,
+    /// 17- and 19-e radicals substitute fast, by associative paths.
+    Radical,
+}
+
+impl Mechanism {
+    /// Tolman's 16/18-electron rule (Chem. Soc. Rev. 1972, 1, 337) and the substitution
+    /// mechanisms of Langford & Gray (Ligand Substitution Processes, 1965).
+    pub fn text(self) -> &'static str {
+        match self {
+            Mechanism::Dissociative => {
+                "dissociative (D): an 18-e complex loses a ligand before the new one binds"
+            }
+            Mechanism::Associative => {
+                "associative (A): the unsaturated complex binds the new ligand first"
+            }
+            Mechanism::Radical => {
+                "odd-electron complex: 17/19-e species substitute fast, usually associatively"
+            }
+        }
+    }
+}
+
+/// The change in donor strength between a leaving and an entering ligand.
+#[derive(Debug, Clone, PartialEq)]
+pub struct DonorShift {
+    pub leaving: Option<f64>,
+    pub entering: Option<f64>,
+}
+
+impl DonorShift {
+    /// Entering minus leaving Tolman electronic parameter (cm-1): negative means a stronger net
+    /// donor comes in (Tolman, Chem. Rev. 1977, 77, 313).
+    pub fn delta(&self) -> Option<f64> {
+        Some(self.entering? - self.leaving?)
+    }
+}
+
+/// Everything a chemist wants to see before committing an edit.
+#[derive(Debug, Clone)]
+pub struct Preview {
+    pub edit: Edit,
+    pub after: Complex,
+    pub before_report: Report,
+    pub after_report: Report,
+    pub focus: Option<Slot>,
+    pub crowd_before: Crowding,
+    pub crowd_after: Crowding,
+    pub leaving: Option<Arc<LigandDef>>,
+    pub entering: Option<Arc<LigandDef>>,
+    pub donor: Option<DonorShift>,
+    pub mechanism: Option<Mechanism>,
+}
+
+impl Preview {
+    /// Unpaired electrons of the product, most likely first; empty when not estimated.
+    pub fn product_unpaired(&self) -> &[u8] {
+        &self.after_report.unpaired_electrons
+    }
+
+    pub fn paramagnetic(&self) -> bool {
+        self.product_unpaired().first().is_some_and(|&n| n > 0)
+    }
+}
+
+/// Work out `edit` on `before` without committing it.
+pub fn preview(
+    before: &Complex,
+    before_report: &Report,
+    edit: &Edit,
+) -> Result<Preview, EditError> {
+    let (after, focus) = apply(before, edit)?;
+    let after_report = count(&after);
+    let (leaving, entering) = match edit {
+        Edit::Swap { slot, ligand, .. } => (
+            before.group(*slot).map(|b| b.ligand.clone()),
+            Some(ligand.clone()),
+        ),
+        Edit::Add { ligand, .. } => (None, Some(ligand.clone())),
+        Edit::Remove { slot } => (before.group(*slot).map(|b| b.ligand.clone()), None),
+        Edit::ChangeMode { .. } | Edit::Charge(_) => (None, None),
+    };
+    let donor = match (&leaving, &entering) {
+        (Some(l), Some(e)) => Some(DonorShift {
+            leaving: l.tep.as_ref().map(|t| t.value),
+            entering: e.tep.as_ref().map(|t| t.value),
+        }),
+        _ => None,
+    };
+    let mechanism = match edit {
+        Edit::Swap { .. } => {
+            before_report
+                .metals
+                .first()
+                .map(|m| match m.electron_count.as_int() {
+                    Some(c) if c % 2 != 0 => Mechanism::Radical,
+                    _ if m.saturation == Saturation::Unsaturated => Mechanism::Associative,
+                    _ if m.target == 16 => Mechanism::Associative,
+                    _ => Mechanism::Dissociative,
+                })
+        }
+        _ => None,
+    };
+    Ok(Preview {
+        edit: edit.clone(),
+        crowd_before: crowding(before),
+        crowd_after: crowding(&after),
+        after,
+        before_report: before_report.clone(),
+        after_report,
+        focus,
+        leaving,
+        entering,
+        donor,
+        mechanism,
+    })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::catalogue::Catalogue;
+    use crate::chem::parse;
+
+    fn setup(f: &str) -> (Catalogue, Complex) {
+        let cat = Catalogue::bundled();
+        let c = parse(f, &cat).unwrap();
+        (cat, c)
+    }
+
+    // Vaska's complex is 16 e and substitutes associatively; swapping PPh3 (TEP 2068.9) for
+    // PMe3 (2064.1) brings in a stronger donor (Tolman, Chem. Rev. 1977, 77, 313).
+    #[test]
+    fn swap_on_a_16_electron_complex() {
+        let (cat, c) = setup("IrCl(CO)(PPh3)2");
+        let slot = c.find("PPh3", 0).unwrap();
+        let pme3 = cat.get("PMe3").unwrap().clone();
+        let p = preview(
+            &c,
+            &count(&c),
+            &Edit::Swap {
+                slot,
+                ligand: pme3,
+                mode: 0,
+            },
+        )
+        .unwrap();
+        assert_eq!(p.mechanism, Some(Mechanism::Associative));
+        let shift = p.donor.unwrap().delta().unwrap();
+        assert!((shift - (2064.1 - 2068.9)).abs() < 0.01);
+        assert!(p.crowd_after.total < p.crowd_before.total);
+        assert_eq!(p.after_report.metals[0].electron_count.as_int(), Some(16));
+    }
+
+    // Replacing CO (L, 2 e) by Cl (X, 1 e) on Cr(CO)6 gives a 17-e [Cr(CO)5Cl] radical.
+    #[test]
+    fn swap_that_changes_the_count_and_spin() {
+        let (cat, c) = setup("Cr(CO)6");
+        let slot = c.find("CO", 0).unwrap();
+        let cl = cat.get("Cl").unwrap().clone();
+        let p = preview(
+            &c,
+            &count(&c),
+            &Edit::Swap {
+                slot,
+                ligand: cl,
+                mode: 0,
+            },
+        )
+        .unwrap();
+        assert_eq!(p.mechanism, Some(Mechanism::Dissociative));
+        assert_eq!(p.after_report.metals[0].electron_count.as_int(), Some(17));
+        assert!(p.paramagnetic());
+    }
+
+    #[test]
+    fn ring_slip_and_charge_edits() {
+        let (_, c) = setup("CpMn(CO)3");
+        let slot = c.find("Cp", 0).unwrap();
+        let cp = c.group(slot).unwrap().ligand.clone();
+        let eta3 = cp.mode_index("η3").unwrap();
+        let (slipped, _) = apply(&c, &Edit::ChangeMode { slot, mode: eta3 }).unwrap();
+        assert_eq!(count(&slipped).metals[0].electron_count.as_int(), Some(16));
+        let (ox, _) = apply(&c, &Edit::Charge(1)).unwrap();
+        assert_eq!(count(&ox).metals[0].oxidation_state.as_int(), Some(2));
+        assert_eq!(
+            apply(
+                &c,
+                &Edit::Remove {
+                    slot: Slot { index: 99, ..slot }
+                }
+            ),
+            Err(EditError::NoSuchLigand)
+        );
+    }
+}

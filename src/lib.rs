@@ -5,3 +5,5 @@
 pub mod catalogue;
 pub mod chem;
 pub mod cli;
+pub mod plain;
+pub mod tui;

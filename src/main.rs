@@ -2,7 +2,7 @@ use std::process::ExitCode;
 
 fn main() -> ExitCode {
     match nonet::cli::run(std::env::args_os()) {
-        Ok(status) => ExitCode::from(status as u8),
+        Ok(status) => ExitCode::from(status.code()),
         Err(e) => {
             // `nonet ... | head` closes the pipe early: that is not an error
             if e.chain().any(|c| {
@@ -12,7 +12,7 @@ fn main() -> ExitCode {
                 return ExitCode::SUCCESS;
             }
             eprintln!("error: {e:#}");
-            ExitCode::from(nonet::cli::Status::Failure as u8)
+            ExitCode::from(nonet::cli::Status::Failure.code())
         }
     }
 }

@@ -17,11 +17,24 @@ use crate::chem;
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Status {
     /// Everything was read and counted.
-    Ok = 0,
+    Ok,
     /// Something failed that is not the input's fault (I/O, a file that cannot be read).
-    Failure = 1,
+    Failure,
     /// Some input was rejected; its errors are on stderr, the rest of the results on stdout.
-    Rejected = 2,
+    Rejected,
+    /// The planner was ended by signal n - 128 (SIGTERM: 143, SIGHUP: 129, SIGINT: 130).
+    Signal(u8),
+}
+
+impl Status {
+    pub fn code(self) -> u8 {
+        match self {
+            Status::Ok => 0,
+            Status::Failure => 1,
+            Status::Rejected => 2,
+            Status::Signal(n) => n,
+        }
+    }
 }
 
 #[derive(Debug, Parser)]
@@ -43,6 +56,13 @@ pub struct Cli {
 
 #[derive(Debug, Subcommand)]
 pub enum Command {
+    /// Open the planner on FORMULA (or on the demo complex): the working complex, the ligand
+    /// catalogue and a preview of each swap or edit before it is committed.
+    Plan {
+        /// The complex to start from, e.g. 'IrCl(CO)(PPh3)2'.
+        #[arg(value_name = "FORMULA")]
+        formula: Option<String>,
+    },
     /// Count electrons under both models, with oxidation state, d count, CBC class, saturation
     /// and spin.
     Count {
@@ -98,12 +118,8 @@ where
     };
     let ascii = cli.ascii || !utf8_locale();
     match cli.command {
-        None => {
-            use clap::CommandFactory;
-            let mut cmd = Cli::command();
-            cmd.print_help().context("writing help")?;
-            Ok(Status::Ok)
-        }
+        None => plan(None, ascii),
+        Some(Command::Plan { formula }) => plan(formula, ascii),
         Some(Command::Count {
             json,
             batch,
@@ -121,6 +137,27 @@ where
             ligands(&query.join(" "), json, ascii)
         }
     }
+}
+
+/// Open the planner; a formula that does not parse is reported before the screen changes.
+fn plan(formula: Option<String>, ascii: bool) -> anyhow::Result<Status> {
+    let cat = load_catalogue();
+    let (text, title) = match &formula {
+        Some(f) => (f.as_str(), f.clone()),
+        None => (crate::tui::DEMO_FORMULA, crate::tui::DEMO_TITLE.to_string()),
+    };
+    let complex = match chem::parse(text, &cat) {
+        Ok(c) => c,
+        Err(e) => {
+            eprintln!("error: {}", e.render());
+            return Ok(Status::Rejected);
+        }
+    };
+    let code = crate::tui::run(std::sync::Arc::new(cat), complex, title, ascii)?;
+    Ok(match code {
+        0 => Status::Ok,
+        n => Status::Signal(n),
+    })
 }
 
 fn load_catalogue() -> Catalogue {

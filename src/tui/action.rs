@@ -1,0 +1,43 @@
+//! What the user can ask for; keys map to these through the keymap table.
+
+/// A request from the keyboard.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Action {
+    Up,
+    Down,
+    PageUp,
+    PageDown,
+    FocusLeft,
+    FocusRight,
+    FocusNext,
+    /// Commit what the preview shows.
+    Commit,
+    StartSearch,
+    /// Preview binding the selected catalogue ligand at an open site.
+    PendAdd,
+    /// Preview taking the selected ligand off.
+    PendRemove,
+    /// Preview the next binding mode of the selected ligand.
+    PendMode,
+    PendOxidize,
+    PendReduce,
+    /// Back to previewing a swap.
+    Cancel,
+    StartFormula,
+    SubmitFormula,
+    Undo,
+    Redo,
+    CycleFamily,
+    CycleClass,
+    ClearFilters,
+    Help,
+    CloseHelp,
+    Repaint,
+    Quit,
+    /// A character typed into the search or formula line.
+    Input(char),
+    DeleteChar,
+    ClearInput,
+    /// Leave the search or formula line.
+    LeaveInput,
+}

@@ -1,0 +1,461 @@
+//! The one table of keys: it drives dispatch, the footer hint line and the help overlay, so a
+//! label is written once and never disagrees with what the key does.
+
+use ratatui::crossterm::event::{KeyCode, KeyEvent, KeyModifiers};
+
+use super::action::Action;
+
+/// Where a binding applies.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Context {
+    /// Anywhere outside text entry.
+    Global,
+    /// The working complex pane has focus.
+    Complex,
+    /// The catalogue pane has focus (not typing).
+    Catalogue,
+    /// Typing a catalogue search.
+    Search,
+    /// Typing a new formula.
+    Formula,
+    /// The help overlay is open.
+    Help,
+}
+
+impl Context {
+    pub fn title(self) -> &'static str {
+        match self {
+            Context::Global => "Anywhere",
+            Context::Complex => "Working complex",
+            Context::Catalogue => "Ligand catalogue",
+            Context::Search => "While searching",
+            Context::Formula => "While typing a formula",
+            Context::Help => "This help",
+        }
+    }
+}
+
+/// A key as the table writes it.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct Key {
+    pub code: KeyCode,
+    pub ctrl: bool,
+}
+
+impl Key {
+    const fn plain(code: KeyCode) -> Key {
+        Key { code, ctrl: false }
+    }
+
+    const fn ch(c: char) -> Key {
+        Key::plain(KeyCode::Char(c))
+    }
+
+    const fn ctrl(c: char) -> Key {
+        Key {
+            code: KeyCode::Char(c),
+            ctrl: true,
+        }
+    }
+
+    fn matches(&self, ev: &KeyEvent) -> bool {
+        let ctrl = ev.modifiers.contains(KeyModifiers::CONTROL);
+        if ctrl != self.ctrl {
+            return false;
+        }
+        match (self.code, ev.code) {
+            // terminals disagree on whether '?' or '+' arrive with SHIFT; the character decides
+            (KeyCode::Char(a), KeyCode::Char(b)) => a == b,
+            (a, b) => a == b,
+        }
+    }
+}
+
+/// One row of the table.
+#[derive(Debug, Clone, Copy)]
+pub struct Binding {
+    pub keys: &'static [Key],
+    /// How the keys are written in the footer and help ("j ↓").
+    pub shown: &'static str,
+    pub action: Action,
+    pub label: &'static str,
+    /// The footer's word for it ("" when not in the footer).
+    pub short: &'static str,
+    pub context: Context,
+}
+
+use KeyCode::*;
+
+const fn b(
+    keys: &'static [Key],
+    shown: &'static str,
+    action: Action,
+    label: &'static str,
+    short: &'static str,
+    context: Context,
+) -> Binding {
+    Binding {
+        keys,
+        shown,
+        action,
+        label,
+        short,
+        context,
+    }
+}
+
+/// Every key nonet knows. None needs Alt, Shift+Enter, Ctrl-A or Ctrl-B.
+pub static BINDINGS: &[Binding] = &[
+    // moving around
+    b(
+        &[Key::ch('k'), Key::plain(Up)],
+        "k/↑",
+        Action::Up,
+        "move up",
+        "",
+        Context::Global,
+    ),
+    b(
+        &[Key::ch('j'), Key::plain(Down)],
+        "j/↓",
+        Action::Down,
+        "move down",
+        "",
+        Context::Global,
+    ),
+    b(
+        &[Key::ch('h'), Key::plain(Left)],
+        "h/←",
+        Action::FocusLeft,
+        "pane to the left",
+        "",
+        Context::Global,
+    ),
+    b(
+        &[Key::ch('l'), Key::plain(Right)],
+        "l/→",
+        Action::FocusRight,
+        "pane to the right",
+        "",
+        Context::Global,
+    ),
+    b(
+        &[Key::plain(Tab)],
+        "Tab",
+        Action::FocusNext,
+        "next pane",
+        "",
+        Context::Global,
+    ),
+    b(
+        &[Key::plain(PageUp)],
+        "PgUp",
+        Action::PageUp,
+        "page up",
+        "",
+        Context::Global,
+    ),
+    b(
+        &[Key::plain(PageDown)],
+        "PgDn",
+        Action::PageDown,
+        "page down",
+        "",
+        Context::Global,
+    ),
+    // what to preview and commit
+    b(
+        &[Key::plain(Enter)],
+        "Enter",
+        Action::Commit,
+        "commit the preview",
+        "commit",
+        Context::Global,
+    ),
+    b(
+        &[Key::ch('/')],
+        "/",
+        Action::StartSearch,
+        "search ligands",
+        "search",
+        Context::Global,
+    ),
+    b(
+        &[Key::ch('a')],
+        "a",
+        Action::PendAdd,
+        "add ligand to an open site",
+        "add",
+        Context::Global,
+    ),
+    b(
+        &[Key::ch('x')],
+        "x",
+        Action::PendRemove,
+        "remove selected ligand",
+        "remove",
+        Context::Complex,
+    ),
+    b(
+        &[Key::ch('m')],
+        "m",
+        Action::PendMode,
+        "change hapticity/mode",
+        "mode",
+        Context::Complex,
+    ),
+    b(
+        &[Key::ch('o')],
+        "o",
+        Action::PendOxidize,
+        "oxidize (1 e)",
+        "ox",
+        Context::Global,
+    ),
+    b(
+        &[Key::ch('r')],
+        "r",
+        Action::PendReduce,
+        "reduce (1 e)",
+        "red",
+        Context::Global,
+    ),
+    b(
+        &[Key::plain(Esc)],
+        "Esc",
+        Action::Cancel,
+        "back to the swap preview",
+        "",
+        Context::Global,
+    ),
+    b(
+        &[Key::ch('e')],
+        "e",
+        Action::StartFormula,
+        "type a new formula",
+        "formula",
+        Context::Global,
+    ),
+    b(
+        &[Key::ch('u')],
+        "u",
+        Action::Undo,
+        "undo",
+        "undo",
+        Context::Global,
+    ),
+    b(
+        &[Key::ctrl('r'), Key::ch('U')],
+        "^R/U",
+        Action::Redo,
+        "redo",
+        "",
+        Context::Global,
+    ),
+    b(
+        &[Key::ch('f')],
+        "f",
+        Action::CycleFamily,
+        "filter by family",
+        "family",
+        Context::Catalogue,
+    ),
+    b(
+        &[Key::ch('c')],
+        "c",
+        Action::CycleClass,
+        "filter by class",
+        "class",
+        Context::Catalogue,
+    ),
+    b(
+        &[Key::ch('0')],
+        "0",
+        Action::ClearFilters,
+        "clear filters",
+        "",
+        Context::Catalogue,
+    ),
+    b(
+        &[Key::ch('?')],
+        "?",
+        Action::Help,
+        "all keys",
+        "keys",
+        Context::Global,
+    ),
+    b(
+        &[Key::ctrl('l')],
+        "^L",
+        Action::Repaint,
+        "repaint the screen",
+        "",
+        Context::Global,
+    ),
+    b(
+        &[Key::ch('q')],
+        "q",
+        Action::Quit,
+        "quit",
+        "quit",
+        Context::Global,
+    ),
+    b(
+        &[Key::ctrl('c')],
+        "^C",
+        Action::Quit,
+        "quit",
+        "",
+        Context::Global,
+    ),
+    // typing a search
+    b(
+        &[Key::plain(Enter)],
+        "Enter",
+        Action::Commit,
+        "commit the swap",
+        "swap",
+        Context::Search,
+    ),
+    b(
+        &[Key::plain(Up)],
+        "↑",
+        Action::Up,
+        "previous hit",
+        "up",
+        Context::Search,
+    ),
+    b(
+        &[Key::plain(Down)],
+        "↓",
+        Action::Down,
+        "next hit",
+        "down",
+        Context::Search,
+    ),
+    b(
+        &[Key::plain(Backspace)],
+        "Bksp",
+        Action::DeleteChar,
+        "delete",
+        "",
+        Context::Search,
+    ),
+    b(
+        &[Key::ctrl('u')],
+        "^U",
+        Action::ClearInput,
+        "clear the query",
+        "",
+        Context::Search,
+    ),
+    b(
+        &[Key::plain(Esc)],
+        "Esc",
+        Action::LeaveInput,
+        "stop searching",
+        "done",
+        Context::Search,
+    ),
+    b(
+        &[Key::ctrl('c')],
+        "^C",
+        Action::Quit,
+        "quit",
+        "",
+        Context::Search,
+    ),
+    // typing a formula
+    b(
+        &[Key::plain(Enter)],
+        "Enter",
+        Action::SubmitFormula,
+        "use this formula",
+        "use",
+        Context::Formula,
+    ),
+    b(
+        &[Key::plain(Backspace)],
+        "Bksp",
+        Action::DeleteChar,
+        "delete",
+        "",
+        Context::Formula,
+    ),
+    b(
+        &[Key::ctrl('u')],
+        "^U",
+        Action::ClearInput,
+        "clear",
+        "",
+        Context::Formula,
+    ),
+    b(
+        &[Key::plain(Esc)],
+        "Esc",
+        Action::LeaveInput,
+        "cancel",
+        "cancel",
+        Context::Formula,
+    ),
+    b(
+        &[Key::ctrl('c')],
+        "^C",
+        Action::Quit,
+        "quit",
+        "",
+        Context::Formula,
+    ),
+    // help
+    b(
+        &[Key::ch('?'), Key::plain(Esc), Key::ch('q')],
+        "?/Esc/q",
+        Action::CloseHelp,
+        "close help",
+        "close",
+        Context::Help,
+    ),
+    b(
+        &[Key::ch('k'), Key::plain(Up)],
+        "k/↑",
+        Action::Up,
+        "scroll up",
+        "",
+        Context::Help,
+    ),
+    b(
+        &[Key::ch('j'), Key::plain(Down)],
+        "j/↓",
+        Action::Down,
+        "scroll down",
+        "",
+        Context::Help,
+    ),
+    b(
+        &[Key::ctrl('c')],
+        "^C",
+        Action::Quit,
+        "quit",
+        "",
+        Context::Help,
+    ),
+];
+
+/// The action for `ev` in `context`: bindings of the context first, then global ones (global
+/// bindings do not apply while typing or in help).
+pub fn lookup(ev: &KeyEvent, context: Context) -> Option<Action> {
+    let typing = matches!(context, Context::Search | Context::Formula | Context::Help);
+    BINDINGS
+        .iter()
+        .filter(|b| b.context == context || (!typing && b.context == Context::Global))
+        .find(|b| b.keys.iter().any(|k| k.matches(ev)))
+        .map(|b| b.action)
+}
+
+/// The bindings shown in the footer for `context`.
+pub fn footer(context: Context) -> impl Iterator<Item = &'static Binding> {
+    let typing = matches!(context, Context::Search | Context::Formula | Context::Help);
+    BINDINGS.iter().filter(move |b| {
+        !b.short.is_empty() && (b.context == context || (!typing && b.context == Context::Global))
+    })
+}

@@ -1,0 +1,116 @@
+//! The ligand catalogue: the search line, the filters, and the hits with their class, cone
+//! angle and electronic parameter; matched letters are highlighted.
+
+use ratatui::layout::Rect;
+use ratatui::text::{Line, Span};
+use ratatui::widgets::Paragraph;
+use ratatui::Frame;
+
+use super::app::{App, Focus, Mode};
+use super::theme::Theme;
+use super::ui::{block, plain};
+
+pub fn render(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
+    let focused =
+        app.mode == Mode::Search || (app.focus == Focus::Catalogue && app.mode == Mode::Normal);
+    let b = block(app, "Ligand catalogue", focused, t);
+    let inner = b.inner(area);
+    f.render_widget(b, area);
+    if inner.height == 0 {
+        return;
+    }
+    let mut lines: Vec<Line> = Vec::new();
+    let searching = app.mode == Mode::Search;
+    let query_line = if searching {
+        Line::from(vec![
+            Span::styled("/ ", t.key()),
+            Span::raw(app.query.clone()),
+            Span::styled("_", t.key()),
+        ])
+    } else if app.query.is_empty() {
+        Line::styled("/ to search names, formulas, aliases", t.dim())
+    } else {
+        Line::from(vec![
+            Span::styled("/ ", t.key()),
+            Span::raw(app.query.clone()),
+        ])
+    };
+    lines.push(query_line);
+    lines.push(Line::styled(
+        format!(
+            "family {} · class {} · {} of {}",
+            app.family.unwrap_or("all"),
+            app.class.unwrap_or("all"),
+            app.hits.len(),
+            app.cat.len()
+        ),
+        t.dim(),
+    ));
+    let room = (inner.height as usize).saturating_sub(lines.len());
+    let first = app.hit.saturating_sub(room.saturating_sub(1));
+    let width = inner.width as usize;
+    for (i, &idx) in app.hits.iter().enumerate().skip(first).take(room) {
+        let l = &app.cat.ligands()[idx];
+        let selected = i == app.hit;
+        let base = if selected {
+            t.selected(focused)
+        } else {
+            t.text()
+        };
+        let mode = &l.modes[0];
+        let cone = l.cone_angle.as_ref().map_or(String::new(), |c| {
+            format!("{:.0}{}", c.value, if app.ascii { "d" } else { "°" })
+        });
+        let tep = l
+            .tep
+            .as_ref()
+            .map_or(String::new(), |c| format!("{:.0}", c.value));
+        let marker = if selected {
+            if app.ascii {
+                ">"
+            } else {
+                "▸"
+            }
+        } else {
+            " "
+        };
+        let mut spans = vec![Span::styled(format!("{marker} "), base)];
+        // the key with its matched letters marked
+        let key = plain(app, &l.key);
+        let hits = if app.query.is_empty() {
+            Vec::new()
+        } else {
+            app.cat.match_positions(&key, &app.query)
+        };
+        let mut key_len = 0;
+        for (ci, ch) in key.chars().enumerate() {
+            key_len += 1;
+            let style = if hits.contains(&ci) {
+                base.patch(t.matched())
+            } else {
+                base
+            };
+            spans.push(Span::styled(ch.to_string(), style));
+        }
+        let pad = 10usize.saturating_sub(key_len);
+        let rest = format!(
+            "{} {:<5}{:>5} {:>5}  {}",
+            " ".repeat(pad),
+            mode.class.to_string(),
+            cone,
+            tep,
+            plain(app, &l.name)
+        );
+        let used = 2 + key_len.max(10);
+        let rest: String = rest.chars().take(width.saturating_sub(used)).collect();
+        spans.push(Span::styled(rest, base));
+        lines.push(Line::from(spans));
+    }
+    if app.hits.is_empty() {
+        lines.push(Line::styled(
+            "  nothing matches: Bksp or 0 clears",
+            t.warn(),
+        ));
+    }
+    f.render_widget(Paragraph::new(lines), inner);
+}

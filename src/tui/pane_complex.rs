@@ -1,0 +1,218 @@
+//! The working complex: formula, one row per ligand group with mode, class and its electrons
+//! under both models, then the totals, oxidation state, d count, saturation and spin.
+
+use ratatui::layout::Rect;
+use ratatui::text::{Line, Span};
+use ratatui::widgets::{Block, Paragraph};
+use ratatui::Frame;
+
+use super::app::{App, Focus, Mode};
+use super::ui::{block, plain};
+use crate::chem::count::{MetalReport, Saturation};
+use crate::chem::edit::Place;
+
+pub fn render(f: &mut Frame, app: &App, area: Rect, theme: &super::theme::Theme) {
+    let focused = app.focus == Focus::Complex && app.mode == Mode::Normal;
+    let b: Block = block(app, "Working complex", focused, theme);
+    let inner = b.inner(area);
+    f.render_widget(b, area);
+    if inner.height == 0 {
+        return;
+    }
+    let t = theme;
+    let summary = summary_lines(app, t);
+    let slots = app.slots();
+    let needed = 2 + slots.len().max(1) + summary.len();
+    let mut top: Vec<Line> = Vec::new();
+    if (inner.height as usize) > needed {
+        top.push(Line::styled(plain(app, &app.title), t.dim()));
+    }
+    top.push(Line::styled(
+        plain(app, &app.complex.formula(app.ascii)),
+        t.title(),
+    ));
+    top.push(Line::styled(
+        format!(
+            "  {:<11}{:<7}{:<6}{:>4}{:>6}",
+            "ligand", "mode", "class", "neut", "ionic"
+        ),
+        t.heading(),
+    ));
+    // rows get what the header and the summary leave
+    let room = (inner.height as usize)
+        .saturating_sub(top.len() + summary.len())
+        .max(1);
+    let many = app.complex.metal_count() > 1;
+    let first = app.row.saturating_sub(room.saturating_sub(1));
+    for (i, slot) in slots.iter().enumerate().skip(first).take(room) {
+        let Some(group) = app.complex.group(*slot) else {
+            continue;
+        };
+        let (metal, pos) = match slot.place {
+            Place::Site(m) => (m, slot.index),
+            Place::Shared => (0, own_len(app, 0) + slot.index),
+        };
+        let contribution = app
+            .report
+            .metals
+            .get(metal)
+            .and_then(|m| m.contributions.get(pos));
+        let mode = &group.mode().label;
+        let mut name = group.ligand.key.clone();
+        if group.count > 1 {
+            name.push_str(&format!(" x{}", group.count));
+        }
+        if many {
+            let tag = match slot.place {
+                Place::Site(m) => format!("{}{} ", app.complex.sites[m].element.symbol, m + 1),
+                Place::Shared => "all ".to_string(),
+            };
+            name = tag + &name;
+        }
+        let (neutral, ionic) = contribution.map_or((String::new(), String::new()), |c| {
+            (c.neutral.to_string(), c.ionic.to_string())
+        });
+        let marker = if i == app.row {
+            if app.ascii {
+                ">"
+            } else {
+                "▸"
+            }
+        } else {
+            " "
+        };
+        let text = format!(
+            "{marker} {:<11}{:<7}{:<6}{:>4}{:>6}",
+            truncate(&name, 11),
+            plain(app, mode),
+            group.mode().class.to_string(),
+            neutral,
+            ionic
+        );
+        let style = if i == app.row {
+            t.selected(focused)
+        } else {
+            t.text()
+        };
+        top.push(Line::styled(text, style));
+    }
+    if slots.is_empty() {
+        top.push(Line::styled("  (no ligands: press a to add one)", t.dim()));
+    }
+    top.extend(summary);
+    f.render_widget(Paragraph::new(top), inner);
+}
+
+fn own_len(app: &App, metal: usize) -> usize {
+    app.complex.sites.get(metal).map_or(0, |s| s.ligands.len())
+}
+
+fn truncate(s: &str, n: usize) -> String {
+    if s.chars().count() <= n {
+        s.to_string()
+    } else {
+        let mut t: String = s.chars().take(n.saturating_sub(1)).collect();
+        t.push('~');
+        t
+    }
+}
+
+/// Totals, oxidation state, d count, saturation and spin of the first metal (and the cluster).
+fn summary_lines<'a>(app: &App, t: &super::theme::Theme) -> Vec<Line<'a>> {
+    let r = &app.report;
+    let mut out = Vec::new();
+    let Some(m) = r.metals.first() else {
+        return out;
+    };
+    let each = if r.metals.len() > 1 { " (1)" } else { "" };
+    out.push(Line::from(vec![
+        Span::styled(format!("{}{each} ", m.symbol), t.title()),
+        Span::raw(format!(
+            "{} e neutral = {} e ionic",
+            m.electron_count, m.ionic_electron_count
+        )),
+    ]));
+    out.push(Line::raw(format!(
+        "ox. state {} · d{} · CN {}",
+        signed(m),
+        m.d_electrons,
+        m.coordination_number
+    )));
+    let mut sat = saturation_line(m, t);
+    sat.spans.push(Span::raw(plain(
+        app,
+        &format!(" · {}", m.equivalent_neutral_class),
+    )));
+    out.push(sat);
+    if r.metals.len() > 1 {
+        let bonds = r
+            .metal_metal_bonds
+            .map_or("n/a".to_string(), |b| b.to_string());
+        out.push(Line::raw(format!(
+            "cluster {} e · M-M bonds {}",
+            r.cluster_valence_electrons, bonds
+        )));
+    }
+    let spin = match r.unpaired_electrons.first() {
+        None => "spin not estimated".to_string(),
+        Some(0) => "0 unpaired (diamagnetic)".to_string(),
+        Some(n) => format!("! {n} unpaired (paramagnetic)"),
+    };
+    let amb = if r.spin_ambiguous {
+        " or more/less?"
+    } else {
+        ""
+    };
+    out.push(Line::styled(
+        format!("{spin}{amb}"),
+        if r.unpaired_electrons.first().is_some_and(|&n| n > 0) {
+            t.warn()
+        } else {
+            t.text()
+        },
+    ));
+    out.push(Line::styled(r.geometry.to_string(), t.dim()));
+    out.into_iter()
+        .map(|l| {
+            if app.ascii {
+                Line::from(
+                    l.spans
+                        .into_iter()
+                        .map(|s| Span::styled(plain(app, &s.content), s.style))
+                        .collect::<Vec<_>>(),
+                )
+                .style(l.style)
+            } else {
+                l
+            }
+        })
+        .collect()
+}
+
+fn signed(m: &MetalReport) -> String {
+    let os = m.oxidation_state;
+    if os > crate::chem::Frac::ZERO {
+        format!("+{os}")
+    } else {
+        os.to_string()
+    }
+}
+
+pub fn saturation_line<'a>(m: &MetalReport, t: &super::theme::Theme) -> Line<'a> {
+    let (text, style) = match m.saturation {
+        Saturation::Saturated => (format!("saturated ({} e)", m.target), t.good()),
+        Saturation::Unsaturated => (
+            format!(
+                "unsaturated: {} e short of {}, {} open site{}",
+                m.electrons_short,
+                m.target,
+                m.open_sites,
+                if m.open_sites == 1 { "" } else { "s" }
+            ),
+            t.warn(),
+        ),
+        Saturation::Above18 => ("above 18 e!".to_string(), t.bad()),
+        Saturation::NotApplicable => ("18-e rule not applicable".to_string(), t.dim()),
+    };
+    Line::styled(text, style)
+}

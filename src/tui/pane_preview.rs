@@ -1,0 +1,232 @@
+//! What the pending edit would do, before it is committed: electrons under both models,
+//! oxidation state and d count, saturation and open sites, cone angles and crowding, donor
+//! strength, spin, hazards of an entering ligand and the likely substitution mechanism.
+
+use ratatui::layout::Rect;
+use ratatui::text::{Line, Span};
+use ratatui::widgets::{Paragraph, Wrap};
+use ratatui::Frame;
+
+use super::app::{App, Pending};
+use super::theme::Theme;
+use super::ui::{block, plain};
+use crate::chem::count::{MetalReport, Saturation};
+use crate::chem::preview::Preview;
+use crate::chem::spin::spin_only_moment;
+use crate::chem::sterics::{CROWDED, OVERFULL};
+use crate::chem::Frac;
+
+pub fn title(app: &App) -> &'static str {
+    match app.pending {
+        Pending::Swap => "If you swap",
+        Pending::Add => "If you add",
+        Pending::Remove => "If you remove",
+        Pending::Mode(_) => "If the mode changes",
+        Pending::Charge(d) if d > 0 => "If oxidized by 1 e",
+        Pending::Charge(_) => "If reduced by 1 e",
+    }
+}
+
+pub fn render(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
+    let b = block(app, title(app), false, t);
+    let inner = b.inner(area);
+    f.render_widget(b, area);
+    let lines = match &app.preview {
+        None => vec![Line::styled("nothing to preview", t.dim())],
+        Some(Err(why)) => vec![
+            Line::styled(plain(app, why), t.warn()),
+            Line::raw(""),
+            Line::styled(
+                "pick a ligand on the left and one in the catalogue",
+                t.dim(),
+            ),
+        ],
+        Some(Ok(p)) => lines(app, p, t),
+    };
+    let lines: Vec<Line> = if app.ascii {
+        lines
+            .into_iter()
+            .map(|l| {
+                Line::from(
+                    l.spans
+                        .into_iter()
+                        .map(|s| Span::styled(plain(app, &s.content), s.style))
+                        .collect::<Vec<_>>(),
+                )
+                .style(l.style)
+            })
+            .collect()
+    } else {
+        lines
+    };
+    f.render_widget(Paragraph::new(lines).wrap(Wrap { trim: false }), inner);
+}
+
+/// "18" when nothing changes, "18 → 16" when it does.
+fn arrow<T: std::fmt::Display>(a: T, b: T) -> String {
+    let (a, b) = (a.to_string(), b.to_string());
+    if a == b {
+        a
+    } else {
+        format!("{a} → {b}")
+    }
+}
+
+fn row<'a>(name: &str, value: String, style: ratatui::style::Style, t: &Theme) -> Line<'a> {
+    Line::from(vec![
+        Span::styled(format!("{name:<11}"), t.heading()),
+        Span::styled(value, style),
+    ])
+}
+
+fn sat_word(m: &MetalReport) -> String {
+    match m.saturation {
+        Saturation::Saturated => format!("saturated ({} e)", m.target),
+        Saturation::Unsaturated => format!("{} e short", m.electrons_short),
+        Saturation::Above18 => "above 18".into(),
+        Saturation::NotApplicable => "n/a".into(),
+    }
+}
+
+fn signed(f: Frac) -> String {
+    if f > Frac::ZERO {
+        format!("+{f}")
+    } else {
+        f.to_string()
+    }
+}
+
+fn lines<'a>(app: &App, p: &Preview, t: &Theme) -> Vec<Line<'a>> {
+    let mut out = Vec::new();
+    let what = super::app::propose(&p.edit, &app.complex);
+    let (Some(a), Some(b)) = (
+        p.before_report.metals.first(),
+        p.after_report.metals.first(),
+    ) else {
+        out.push(Line::styled(what, t.title()));
+        return out;
+    };
+    // the count change first: it is what the chemist asked
+    let changed = a.electron_count != b.electron_count;
+    out.push(Line::from(vec![
+        Span::styled(format!("{what}: "), t.title()),
+        Span::styled(
+            format!(
+                "{} e neutral, {} e ionic",
+                arrow(a.electron_count, b.electron_count),
+                arrow(a.ionic_electron_count, b.ionic_electron_count),
+            ),
+            if changed { t.warn() } else { t.title() },
+        ),
+    ]));
+    let sat_style = match b.saturation {
+        Saturation::Saturated => t.good(),
+        Saturation::Above18 => t.bad(),
+        _ => t.warn(),
+    };
+    out.push(row(
+        "metal",
+        format!(
+            "ox. state {}, d{}; {}, open sites {}",
+            arrow(signed(a.oxidation_state), signed(b.oxidation_state)),
+            arrow(a.d_electrons, b.d_electrons),
+            arrow(sat_word(a), sat_word(b)),
+            arrow(a.open_sites, b.open_sites)
+        ),
+        sat_style,
+        t,
+    ));
+    let unpaired = p.product_unpaired();
+    let before = p.before_report.unpaired_electrons.first().copied();
+    let (spin_text, spin_style) = match unpaired.first() {
+        None => ("not estimated".to_string(), t.dim()),
+        Some(0) => (
+            format!("{} unpaired: diamagnetic", arrow(before.unwrap_or(0), 0)),
+            t.text(),
+        ),
+        Some(&n) => (
+            format!(
+                "! paramagnetic product: {} unpaired, {:.2} μB spin-only{}",
+                arrow(before.unwrap_or(0), n),
+                spin_only_moment(n),
+                if p.after_report.spin_ambiguous {
+                    " (ambiguous)"
+                } else {
+                    ""
+                }
+            ),
+            t.warn(),
+        ),
+    };
+    out.push(row("spin", spin_text, spin_style, t));
+    // sterics: cone angles in and out, and the crowding of the whole sphere
+    let cone = |l: &Option<std::sync::Arc<crate::chem::LigandDef>>| {
+        l.as_ref().map(|l| match &l.cone_angle {
+            Some(c) => format!("{} {:.0}°", l.key, c.value),
+            None => format!("{} (no cone angle)", l.key),
+        })
+    };
+    let cones = match (cone(&p.leaving), cone(&p.entering)) {
+        (Some(o), Some(i)) => format!("{o} out, {i} in; "),
+        (None, Some(i)) => format!("{i} in; "),
+        (Some(o), None) => format!("{o} out; "),
+        (None, None) => String::new(),
+    };
+    let (cb, ca) = (p.crowd_before.total, p.crowd_after.total);
+    let crowd_style = if ca >= OVERFULL {
+        t.bad()
+    } else if ca >= CROWDED {
+        t.warn()
+    } else {
+        t.text()
+    };
+    let mut crowd = format!("{cones}sphere {cb:.2} → {ca:.2}, {}", p.crowd_after.level());
+    if ca >= CROWDED {
+        crowd.push_str(&format!(" (from {CROWDED:.1}, Tolman's NiL4 series)"));
+    }
+    if !p.crowd_after.unknown.is_empty() {
+        crowd.push_str(&format!(
+            "; no cone angle for {}",
+            p.crowd_after.unknown.join(", ")
+        ));
+    }
+    out.push(row("sterics", crowd, crowd_style, t));
+    if let Some(d) = &p.donor {
+        let text = match (d.leaving, d.entering, d.delta()) {
+            (Some(l), Some(e), Some(delta)) => {
+                let word = if delta < -0.5 {
+                    "stronger net donor"
+                } else if delta > 0.5 {
+                    "weaker net donor"
+                } else {
+                    "about the same donor"
+                };
+                format!("{word}: TEP {l:.1} → {e:.1} cm⁻¹ ({delta:+.1})")
+            }
+            (l, _, _) => {
+                let missing = if l.is_none() { &p.leaving } else { &p.entering };
+                let key = missing.as_ref().map_or("?", |l| l.key.as_str());
+                format!("no electronic parameter (TEP) for {key}")
+            }
+        };
+        out.push(row("donor", text, t.text(), t));
+    }
+    if let Some(m) = p.mechanism {
+        out.push(row("mechanism", m.text().to_string(), t.text(), t));
+    }
+    if let Some(l) = &p.entering {
+        if !l.hazards.is_empty() {
+            out.push(row(
+                "caution",
+                format!(
+                    "! {}: {}; consult the safety data sheet and local rules",
+                    l.key,
+                    l.hazards.join(" ")
+                ),
+                t.warn(),
+                t,
+            ));
+        }
+    }
+    out
+}

@@ -214,7 +214,11 @@ impl LigandLookup for Catalogue {
         self.get(token)
     }
 
-    fn longest_prefix(&self, text: &str) -> Option<(&Arc<LigandDef>, usize)> {
+    fn longest_prefix(
+        &self,
+        text: &str,
+        accept: &dyn Fn(usize) -> bool,
+    ) -> Option<(&Arc<LigandDef>, usize)> {
         let first = *text.as_bytes().first()?;
         let second = text.as_bytes().get(1).copied();
         self.by_first[first as usize]
@@ -222,7 +226,9 @@ impl LigandLookup for Catalogue {
             .find(|(t, _)| {
                 let tb = t.as_bytes();
                 // compare the second byte first: most candidates fail there, without a memcmp
-                (tb.len() == 1 || tb.get(1).copied() == second) && text.starts_with(t.as_str())
+                (tb.len() == 1 || tb.get(1).copied() == second)
+                    && text.starts_with(t.as_str())
+                    && accept(tb.len())
             })
             .map(|(t, i)| (&self.ligands[*i], t.len()))
     }

@@ -97,8 +97,18 @@ pub struct ClusterView {
 ///
 /// `need[i]` is how many electrons metal i lacks from its target (18, or 16 for square-planar
 /// d8); `d[i]` its d count, which caps the bonds it can form; `cve` the total cluster valence
-/// electron count; `no_bonds` is set for metals that do not form M-M bonds in this frame.
-pub fn metal_bonds(need: &[Frac], d: &[Frac], cve: Frac, no_bonds: bool) -> ClusterView {
+/// electron count; `refused` is set when some metal forms no M-M bond at all; `werner` when no
+/// π-acceptor ligand is present, where a dimer's bond order follows the filling of its
+/// σ, π, δ, δ*, π*, σ* levels (Cotton: d4-d4 quadruple, d7-d7 single, as in Rh2(O2CMe)4);
+/// `bridges3c` counts 3c-2e M-H-M bridges, each standing for one M-M bond.
+pub fn metal_bonds(
+    need: &[Frac],
+    d: &[Frac],
+    cve: Frac,
+    refused: bool,
+    werner: bool,
+    bridges3c: u32,
+) -> ClusterView {
     let n = need.len();
     let mut notes = Vec::new();
     let deficit: Frac = need.iter().copied().sum();
@@ -112,21 +122,31 @@ pub fn metal_bonds(need: &[Frac], d: &[Frac], cve: Frac, no_bonds: bool) -> Clus
             notes.push("odd cluster valence electron count: the cluster is a radical".into());
         }
     }
-    if no_bonds {
+    if refused {
         return ClusterView {
             bonds: Some(0),
             polyhedron: None,
             notes,
         };
     }
-    let max_per_metal = d
-        .iter()
-        .map(|x| x.floor().max(0))
-        .min()
-        .unwrap_or(0)
-        .min(if n == 2 { 4 } else { n as i64 - 1 });
-    let edges_max = if n == 2 { 4 } else { (n * (n - 1) / 2) as i64 };
-    let cap = (max_per_metal * n as i64 / 2).min(edges_max);
+    let d_min = d.iter().map(|x| x.floor().max(0)).min().unwrap_or(0);
+    let per_metal = if n == 2 {
+        if werner {
+            // bond order from the d-d levels of a dimer
+            if d_min <= 4 {
+                d_min
+            } else {
+                (8 - d_min).max(0)
+            }
+        } else {
+            d_min.min(4)
+        }
+    } else {
+        d_min.min(n as i64 - 1)
+    };
+    let edges = if n == 2 { 4 } else { (n * (n - 1) / 2) as i64 };
+    // 3c-2e bridges sit on edges too, so they add to what the edges can hold
+    let cap = (per_metal * n as i64 / 2).min(edges) + bridges3c as i64;
     let mut bonds = raw.min(cap).max(0) as u32;
     let mut polyhedron = None;
     if n >= 3 {
@@ -134,7 +154,7 @@ pub fn metal_bonds(need: &[Frac], d: &[Frac], cve: Frac, no_bonds: bool) -> Clus
             polyhedron = POLYHEDRA.iter().find(|p| p.metals == n && p.cve == c);
         }
         match polyhedron {
-            Some(p) if p.edges == bonds => {}
+            Some(p) if p.edges + bridges3c == bonds => {}
             Some(p) => {
                 notes.push(format!(
                     "the 18-electron rule gives {} M-M bonds but a {} has {} edges: count this \
@@ -182,7 +202,7 @@ mod tests {
     // triangle (48 e), each Os 16 e before M-M bonds.
     #[test]
     fn triangle_from_three_sixteen_electron_metals() {
-        let v = metal_bonds(&[f(2), f(2), f(2)], &[f(8); 3], f(48), false);
+        let v = metal_bonds(&[f(2), f(2), f(2)], &[f(8); 3], f(48), false, false, 0);
         assert_eq!(v.bonds, Some(3));
         assert_eq!(v.polyhedron.map(|p| p.name), Some("triangle"));
     }
@@ -191,15 +211,19 @@ mod tests {
     #[test]
     fn octahedron_defeats_the_18_electron_rule() {
         let need = vec![Frac::new(11, 3); 6];
-        let v = metal_bonds(&need, &[f(9); 6], f(86), false);
+        let v = metal_bonds(&need, &[f(9); 6], f(86), false, false, 0);
         assert_eq!(v.bonds, None);
         assert!(v.polyhedron.unwrap().name.starts_with("octahedron"));
     }
 
     #[test]
     fn d_count_caps_bond_order() {
-        // two d4 metals short of 6 electrons each: quadruple bond, not sextuple
-        let v = metal_bonds(&[f(6), f(6)], &[f(4), f(4)], f(24), false);
+        // two d4 metals short of 6 electrons each: quadruple bond, not sextuple ([Re2Cl8]2-)
+        let v = metal_bonds(&[f(6), f(6)], &[f(4), f(4)], f(24), false, true, 0);
         assert_eq!(v.bonds, Some(4));
+        // d7-d7 without π acceptors (Rh2(O2CMe)4): a single bond (Cotton & Walton, Multiple
+        // Bonds between Metal Atoms, 2nd ed., 1993)
+        let v = metal_bonds(&[f(3), f(3)], &[f(7), f(7)], f(30), false, true, 0);
+        assert_eq!(v.bonds, Some(1));
     }
 }

@@ -13,6 +13,8 @@ pub struct BoundLigand {
     pub ligand: Arc<LigandDef>,
     pub mode: usize,
     pub count: u32,
+    /// The mode was written in the formula, so nonet must not choose another.
+    pub pinned: bool,
 }
 
 impl BoundLigand {
@@ -21,6 +23,7 @@ impl BoundLigand {
             ligand,
             mode,
             count,
+            pinned: false,
         }
     }
 
@@ -33,7 +36,7 @@ impl BoundLigand {
             .unwrap_or(&self.ligand.modes[0])
     }
 
-    fn same_kind(&self, other: &BoundLigand) -> bool {
+    pub(crate) fn same_kind(&self, other: &BoundLigand) -> bool {
         self.ligand.key == other.ligand.key && self.mode == other.mode
     }
 
@@ -58,7 +61,8 @@ impl BoundLigand {
     /// Whether the mode label is written in the canonical form.
     fn shows_label(&self) -> bool {
         let m = self.mode();
-        self.mode != 0 || m.hapticity().is_some() || m.bridges > 1
+        let terminal_modes = self.ligand.modes.iter().filter(|m| m.bridges == 1).count();
+        self.mode != 0 || m.hapticity().is_some() || m.bridges > 1 || terminal_modes > 1
     }
 
     /// Single-atom X or L ligands in their default mode (Cl, H, O) print without parentheses,
@@ -105,13 +109,22 @@ pub struct MetalSite {
 }
 
 /// A whole complex.
-#[derive(Debug, Clone, PartialEq)]
+#[derive(Debug, Clone)]
 pub struct Complex {
     pub sites: Vec<MetalSite>,
     /// Ligands spread evenly over all metals (bridges, and ligands written outside any
     /// single-metal fragment).
     pub shared: Vec<BoundLigand>,
     pub charge: i32,
+    /// What reading the formula decided on the chemist's behalf (counter-ions set aside, modes
+    /// chosen); not part of the complex's identity.
+    pub notes: Vec<String>,
+}
+
+impl PartialEq for Complex {
+    fn eq(&self, other: &Complex) -> bool {
+        self.sites == other.sites && self.shared == other.shared && self.charge == other.charge
+    }
 }
 
 impl Complex {

@@ -137,8 +137,13 @@ impl Caution {
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct MetalReport {
     pub symbol: &'static str,
-    pub group: u8,
+    /// IUPAC group; none for the f block.
+    pub group: Option<u8>,
+    /// Electrons the metal brings to the neutral count: the group number for the d block,
+    /// those beyond the f shell for the f block.
     pub valence_electrons: u8,
+    /// f electrons of an f-block metal at its oxidation state.
+    pub f_electrons: Option<Frac>,
     pub electron_count: Frac,
     pub ionic_electron_count: Frac,
     pub oxidation_state: Frac,
@@ -187,6 +192,48 @@ pub struct Report {
     /// deferral to the safety data sheet and local rules.
     pub cautions: Vec<Caution>,
     pub notes: Vec<String>,
+}
+
+/// Ligand families whose heteroatom lone pairs bridge metals or hold square-planar d8 centres.
+pub const HETERO_X: &[&str] = &[
+    "halide",
+    "alkoxide",
+    "thiolate",
+    "amide",
+    "carboxylate",
+    "diketonate",
+    "pseudohalide",
+    "oxo",
+];
+
+/// Why a metal forms no M-M bond, if it does not: no d electrons to share (d0), a closed shell
+/// (d10), a square-planar d8 centre content at 16 e, an f-block metal, or a first-row metal in
+/// a high oxidation state (Fe(III), Ti(III) dimers are bridged, not bonded; common practice).
+pub fn bond_refusal(
+    e: &super::element::Element,
+    os: Frac,
+    d: Frac,
+    target: u8,
+) -> Option<&'static str> {
+    if e.block == Block::F {
+        return Some("f-block metals are not counted to 18 e");
+    }
+    let d = d.floor();
+    if d <= 0 {
+        return Some("a d0 metal has no electrons for an M-M bond");
+    }
+    if d >= 10 {
+        return Some("a d10 metal has a closed shell");
+    }
+    if target == 16 {
+        return Some("square-planar d8 centres are content at 16 e");
+    }
+    if e.is_first_row() && os >= Frac::int(3) {
+        return Some(
+            "first-row metals in oxidation states of +3 and above are bridged, not bonded",
+        );
+    }
+    None
 }
 
 /// Cone angle from which a ligand is called bulky (PCy3 170 deg, PtBu3 182 deg; Tolman,
@@ -303,37 +350,64 @@ pub fn count(complex: &Complex) -> Report {
         })
         .collect();
 
-    // Before any M-M bond: the count each metal gets from its ligands and its share of charge.
-    let pre: Vec<Frac> = complex
-        .sites
-        .iter()
-        .zip(&tallies)
-        .map(|(s, t)| t.neutral - charge_share + s.element.valence as i64)
-        .collect();
     let oxidation: Vec<Frac> = tallies
         .iter()
         .map(|t| charge_share - t.ionic_charge)
         .collect();
-    let d: Vec<Frac> = complex
+    // f-block metals count the electrons beyond their f shell: three (Ln(III), An(III)), or as
+    // many as the oxidation state asks (Ce(IV), U(IV)); their f electrons are reported apart
+    let valence: Vec<i64> = complex
         .sites
         .iter()
         .zip(&oxidation)
-        .map(|(s, os)| -*os + s.element.valence as i64)
+        .map(|(s, os)| match s.element.block {
+            Block::D => s.element.valence as i64,
+            Block::F => {
+                let os_up = -((-*os).floor());
+                os_up.max(3)
+            }
+        })
         .collect();
+    // Before any M-M bond: the count each metal gets from its ligands and its share of charge.
+    let pre: Vec<Frac> = tallies
+        .iter()
+        .zip(&valence)
+        .map(|(t, v)| t.neutral - charge_share + *v)
+        .collect();
+    let d: Vec<Frac> = valence
+        .iter()
+        .zip(&oxidation)
+        .map(|(v, os)| -*os + *v)
+        .collect();
+    let hetero: Vec<bool> = complex
+        .sites
+        .iter()
+        .map(|s| {
+            s.ligands
+                .iter()
+                .chain(&complex.shared)
+                .any(|b| HETERO_X.contains(&b.ligand.family.as_str()))
+        })
+        .collect();
+    let polynuclear = complex.metal_count() >= 2;
     let targets: Vec<u8> = complex
         .sites
         .iter()
         .zip(&tallies)
         .zip(&d)
-        .map(|((s, t), d)| {
+        .enumerate()
+        .map(|(i, ((s, t), d))| {
+            // in a cluster only heteroatom-bridged or -ligated d8 centres stay at 16 e;
+            // carbon-bridged carbonyl clusters go to 18 with M-M bonds (Co3(CO)9(μ3-CMe))
             let planar_d8 = s.element.block == Block::D
                 && d.as_int() == Some(8)
                 && t.sites == Frac::int(4)
+                && (!polynuclear || hetero[i])
                 && spin::square_planar_d8(
                     s.element.symbol,
                     s.element.group,
                     s.element.is_first_row(),
-                    (-*d + s.element.valence as i64).floor(),
+                    (-*d + valence[i]).floor(),
                     t.field(),
                 );
             if planar_d8 {
@@ -351,22 +425,28 @@ pub fn count(complex: &Complex) -> Report {
         .map(|b| b.count)
         .sum();
 
-    let view = if complex.metal_count() >= 2 {
+    let view = if polynuclear {
         let need: Vec<Frac> = pre
             .iter()
             .zip(&targets)
             .map(|(p, t)| Frac::int(*t as i64) - *p)
             .collect();
-        let no_bonds = complex
+        let refusal = complex
             .sites
             .iter()
-            .any(|s| s.element.block == Block::F || s.element.group >= 11);
-        let mut v = cluster::metal_bonds(&need, &d, cve, no_bonds);
-        if no_bonds {
-            v.notes.push(
-                "no M-M bonds inferred: f-block and group 11-12 metals are not counted to 18 e"
-                    .into(),
-            );
+            .zip(&oxidation)
+            .zip(&d)
+            .zip(&targets)
+            .find_map(|(((s, os), d), t)| bond_refusal(s.element, *os, *d, *t));
+        let werner = !complex.all_ligands().any(|(_, b)| {
+            matches!(
+                b.ligand.family.as_str(),
+                "carbonyl" | "isocyanide" | "nitrosyl" | "cyclopentadienyl" | "arene"
+            )
+        });
+        let mut v = cluster::metal_bonds(&need, &d, cve, refusal.is_some(), werner, three_centre);
+        if let Some(why) = refusal {
+            v.notes.push(format!("no M-M bonds inferred: {why}"));
         }
         v
     } else {
@@ -387,6 +467,7 @@ pub fn count(complex: &Complex) -> Report {
         .map(|(i, (site, t))| {
             metal_report(
                 site.element,
+                valence[i],
                 t,
                 pre[i],
                 oxidation[i],
@@ -411,7 +492,8 @@ pub fn count(complex: &Complex) -> Report {
             );
         }
     }
-    let mut notes = view.notes.clone();
+    let mut notes = complex.notes.clone();
+    notes.extend(view.notes.iter().cloned());
     let (hazards, cautions) = collect_cautions(complex);
     if complex.metal_count() >= 2 && bond_total > 0 && carbonyl_may_bridge(complex) {
         notes.push(
@@ -454,16 +536,44 @@ pub fn count(complex: &Complex) -> Report {
 /// Whether CO is written as a bridge, cannot be shared evenly (Fe2(CO)9), or sits on first-row
 /// group 8-9 metals, whose carbonyl dimers and clusters bridge (Co2(CO)8, [CpFe(CO)2]2).
 fn carbonyl_may_bridge(complex: &Complex) -> bool {
-    let n = complex.metal_count() as u32;
-    complex.all_ligands().any(|(_, b)| {
-        b.ligand.key == "CO"
-            && (b.mode().bridges > 1
-                || b.count % n != 0
-                || complex
-                    .sites
-                    .iter()
-                    .any(|s| s.element.is_first_row() && (8..=9).contains(&s.element.group)))
-    })
+    let first_row_8_9 = complex
+        .sites
+        .iter()
+        .any(|s| s.element.is_first_row() && (8..=9).contains(&s.element.group));
+    complex
+        .all_ligands()
+        .any(|(_, b)| b.ligand.key == "CO" && (b.mode().bridges > 1 || first_row_8_9))
+}
+
+impl Report {
+    /// Why these numbers describe no real complex, if they do not: a d-block metal stripped
+    /// of more electrons than its group holds (TiCl6 would be d-2), or given more than a d10
+    /// shell and its two s/p electrons can take.
+    pub fn impossible(&self) -> Option<String> {
+        self.metals.iter().find_map(|m| {
+            m.group?;
+            let d = m.d_electrons;
+            if d < Frac::ZERO {
+                Some(format!(
+                    "{} would be {:+} with d{}: a group-{} metal has only {} electrons to give; \
+                     check the charge and the ligands",
+                    m.symbol,
+                    m.oxidation_state.to_f64(),
+                    d,
+                    m.group.unwrap_or(0),
+                    m.valence_electrons
+                ))
+            } else if d > Frac::int(12) {
+                Some(format!(
+                    "{} would be {} with d{}: more electrons than a metal can hold; check the \
+                     charge",
+                    m.symbol, m.oxidation_state, d
+                ))
+            } else {
+                None
+            }
+        })
+    }
 }
 
 /// Spread `total` M-M bonds over the metals: exactly where each metal's shortfall says how many
@@ -494,6 +604,7 @@ fn bonds_per_metal(pre: &[Frac], targets: &[u8], total: u32) -> Vec<Frac> {
 #[allow(clippy::too_many_arguments)]
 fn metal_report(
     element: &'static super::element::Element,
+    valence: i64,
     t: Tally,
     pre: Frac,
     os: Frac,
@@ -510,7 +621,7 @@ fn metal_report(
     let enc = class_text(element.symbol, el, ex, ez, q_left);
     let vn = ex + ez * 2;
     let lbn = el + ex + ez;
-    let cbc_count = el * 2 + ex - q_left + element.valence as i64;
+    let cbc_count = el * 2 + ex - q_left + valence;
     let mut notes = Vec::new();
     let (saturation, short, open) = if element.block == Block::F {
         notes.push("f-block metal: the 18-electron rule does not apply".into());
@@ -570,8 +681,9 @@ fn metal_report(
     }
     MetalReport {
         symbol: element.symbol,
-        group: element.group,
-        valence_electrons: element.valence,
+        group: (element.block == Block::D).then_some(element.group),
+        valence_electrons: valence as u8,
+        f_electrons: (element.block == Block::F).then(|| -os + element.valence as i64),
         electron_count: count,
         ionic_electron_count: ionic_count,
         oxidation_state: os,
@@ -582,7 +694,7 @@ fn metal_report(
         equivalent_neutral_class: enc,
         valence_number: vn,
         ligand_bond_number: lbn,
-        cbc_d_electrons: -vn + element.valence as i64,
+        cbc_d_electrons: -vn - q_left + valence,
         cbc_electron_count: cbc_count,
         saturation,
         target,
@@ -723,16 +835,18 @@ fn centre_guess(complex: &Complex, i: usize, m: &MetalReport) -> SpinGuess {
             d: -1,
             electrons: -1,
             symbol: m.symbol,
-            group: m.group,
+            group: m.group.unwrap_or(0),
             oxidation_state: 0,
             first_row: false,
             f_block: false,
             sites: 0,
             rings: 0,
             field: 1.0,
+            planar_ligand: false,
         });
     };
     let mut rings = 0;
+    let mut planar_ligand = false;
     let mut field_sum = 0.0;
     let mut weight = 0.0;
     for b in site.ligands.iter().chain(&complex.shared) {
@@ -740,6 +854,7 @@ fn centre_guess(complex: &Complex, i: usize, m: &MetalReport) -> SpinGuess {
         if mode.hapticity().is_some_and(|h| h >= 5) {
             rings += b.count;
         }
+        planar_ligand |= b.ligand.family == "macrocycle" && mode.sites == 4;
         if let Some(f) = b.ligand.field {
             let w = (b.count as f64) * mode.sites as f64;
             field_sum += f.score() * w;
@@ -751,7 +866,7 @@ fn centre_guess(complex: &Complex, i: usize, m: &MetalReport) -> SpinGuess {
         d,
         electrons: m.electron_count.as_int().unwrap_or(-1),
         symbol: m.symbol,
-        group: m.group,
+        group: m.group.unwrap_or(0),
         oxidation_state: m.oxidation_state.as_int().unwrap_or(0),
         first_row: site.element.is_first_row(),
         f_block: site.element.block == Block::F,
@@ -762,6 +877,7 @@ fn centre_guess(complex: &Complex, i: usize, m: &MetalReport) -> SpinGuess {
         } else {
             1.0
         },
+        planar_ligand,
     })
 }
 

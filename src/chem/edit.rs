@@ -61,6 +61,8 @@ pub enum EditError {
     },
     #[error("a charge beyond ±20 is not a molecular complex")]
     ChargeOutOfRange,
+    #[error("{0}")]
+    Impossible(String),
 }
 
 impl Complex {
@@ -111,6 +113,8 @@ impl Complex {
 /// brought in or changed (for keeping the selection on it), if any.
 pub fn apply(complex: &Complex, edit: &Edit) -> Result<(Complex, Option<Slot>), EditError> {
     let mut c = complex.clone();
+    // notes about how the formula was read no longer describe the edited complex
+    c.notes.clear();
     let n = c.metal_count();
     let check_mode = |l: &Arc<LigandDef>, mode: usize| -> Result<(), EditError> {
         let m = l

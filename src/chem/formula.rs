@@ -19,9 +19,13 @@ use super::ligand::{normalize_label, LigandDef};
 pub trait LigandLookup {
     /// The ligand whose key, formula or alias is exactly `token`.
     fn exact(&self, token: &str) -> Option<&Arc<LigandDef>>;
-    /// The ligand with the longest formula token that `text` starts with, and that token's
-    /// length in bytes.
-    fn longest_prefix(&self, text: &str) -> Option<(&Arc<LigandDef>, usize)>;
+    /// The ligand with the longest formula token that `text` starts with and whose length (in
+    /// bytes) `accept` allows, and that length.
+    fn longest_prefix(
+        &self,
+        text: &str,
+        accept: &dyn Fn(usize) -> bool,
+    ) -> Option<(&Arc<LigandDef>, usize)>;
     /// The nearest known token to an unknown one, for "did you mean".
     fn suggest(&self, token: &str) -> Option<String>;
 }
@@ -86,8 +90,25 @@ pub fn parse(input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseErr
         lookup,
         metals: 0,
     };
-    let (body_end, charge) = p.split_charge()?;
-    let mut pos = 0;
+    let mut notes = Vec::new();
+    let start = p.isomer_prefix(&mut notes);
+    let (body_end, written_charge) = p.split_charge(start)?;
+    let (start, body_end, counter) = p.counter_ions(start, body_end, &mut notes)?;
+    let charge = match (written_charge, counter) {
+        (Some(w), Some(c)) if w != c => {
+            return Err(p
+                .error(
+                    start,
+                    body_end - start,
+                    format!("the written charge {w:+} disagrees with the counter-ions ({c:+})"),
+                )
+                .with_hint("give the charge or the counter-ions, not both"))
+        }
+        (Some(w), _) => w,
+        (None, Some(c)) => c,
+        (None, None) => 0,
+    };
+    let mut pos = start;
     let root = p.sequence(&mut pos, body_end, None, 0)?;
     if pos < body_end {
         return Err(p.error(pos, 1, "unexpected text".into()));
@@ -106,10 +127,29 @@ pub fn parse(input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseErr
         sites: Vec::new(),
         shared: Vec::new(),
         charge,
+        notes,
     };
     flatten(root, &mut complex);
     complex.canonicalize();
     let n = complex.metal_count();
+    // a bridge written without its mode spans as many metals as there are, up to its own
+    // reach: C in Fe5C(CO)15 is μ5
+    for b in complex
+        .sites
+        .iter_mut()
+        .flat_map(|s| s.ligands.iter_mut())
+        .chain(complex.shared.iter_mut())
+    {
+        if !b.pinned && b.mode().bridges as usize > n {
+            if let Some(i) = (0..b.ligand.modes.len())
+                .filter(|&i| b.ligand.modes[i].bridges as usize <= n)
+                .max_by_key(|&i| b.ligand.modes[i].bridges)
+            {
+                b.mode = i;
+            }
+        }
+    }
+    complex.canonicalize();
     for (_, b) in complex.all_ligands() {
         let m = b.mode();
         if m.bridges as usize > n {
@@ -126,8 +166,58 @@ pub fn parse(input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseErr
             });
         }
     }
+    super::fit::fit_modes(&mut complex);
     Ok(complex)
 }
+
+/// Counter-cations written before a bracketed complex ion (`K3[Fe(CN)6]`), with their charges.
+const CATIONS: &[(&str, i32)] = &[
+    ("NBu4", 1),
+    ("NEt4", 1),
+    ("NMe4", 1),
+    ("NPr4", 1),
+    ("PPh4", 1),
+    ("AsPh4", 1),
+    ("PPN", 1),
+    ("NH4", 1),
+    ("Li", 1),
+    ("Na", 1),
+    ("K", 1),
+    ("Rb", 1),
+    ("Cs", 1),
+    ("Mg", 2),
+    ("Ca", 2),
+    ("Sr", 2),
+    ("Ba", 2),
+];
+
+/// Counter-anions written after a bracketed complex ion (`[Co(NH3)6]Cl3`, `[Cp2Fe]PF6`).
+const ANIONS: &[(&str, i32)] = &[
+    ("BArF24", -1),
+    ("BArF4", -1),
+    ("BArF", -1),
+    ("BPh4", -1),
+    ("BF4", -1),
+    ("PF6", -1),
+    ("SbF6", -1),
+    ("AsF6", -1),
+    ("AlCl4", -1),
+    ("ClO4", -1),
+    ("CF3SO3", -1),
+    ("OTf", -1),
+    ("NO3", -1),
+    ("SO4", -2),
+    ("CO3", -2),
+    ("PO4", -3),
+    ("OAc", -1),
+    ("Cl", -1),
+    ("Br", -1),
+    ("I", -1),
+    ("F", -1),
+];
+
+/// Stereo descriptors chemists put in front of a formula; they do not change the count.
+const ISOMER_PREFIXES: &[&str] = &["trans-", "cis-", "fac-", "mer-", "syn-", "anti-"];
 
 /// Map look-alike characters onto the ones the grammar uses, remembering each character's
 /// column in the original text (None: plain ASCII, columns unchanged).
@@ -139,11 +229,21 @@ fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
     const SUB: &str = "₀₁₂₃₄₅₆₇₈₉";
     let mut text = String::with_capacity(input.len());
     let mut cols = Vec::with_capacity(input.len());
+    let mut in_super = false;
     for (col, c) in input.chars().enumerate() {
+        // superscripts are a charge ("Fe(CO)₄²⁻"): they become "^2-", which cannot be read as a
+        // multiplier
+        let superscript = c == '⁺' || c == '⁻' || SUPER.contains(c);
+        if superscript && !in_super {
+            text.push('^');
+            cols.push(col);
+        }
+        in_super = superscript;
         let mapped = match c {
             'µ' => 'μ',
             '−' | '–' | '—' | '⁻' => '-',
             '⁺' => '+',
+            '′' | '’' => '\'',
             '\t' | '\u{a0}' => ' ',
             c => {
                 if let Some(i) = SUPER.chars().position(|s| s == c) {
@@ -259,11 +359,33 @@ impl<'a> Parser<'a> {
         }
     }
 
-    /// Find a trailing charge ("3+", "2-", "+", "-", "+2") after a closing bracket or a space.
-    fn split_charge(&self) -> Result<(usize, i32), ParseError> {
+    /// Skip a stereo descriptor such as "trans-" or "fac-" (noted, not counted).
+    fn isomer_prefix(&self, notes: &mut Vec<String>) -> usize {
+        let lead = self.text.len() - self.text.trim_start().len();
+        let rest = &self.text[lead..];
+        for p in ISOMER_PREFIXES {
+            if rest.len() > p.len()
+                && rest
+                    .get(..p.len())
+                    .is_some_and(|h| h.eq_ignore_ascii_case(p))
+            {
+                notes.push(format!(
+                    "'{}' describes an isomer; the count does not depend on it",
+                    &p[..p.len() - 1]
+                ));
+                return lead + p.len();
+            }
+        }
+        lead
+    }
+
+    /// Find a trailing charge: "3+", "2-", "+2" after a closing bracket or a space; "^3+",
+    /// "(3+)" or a superscript anywhere at the end; a bare sign right after a letter or ')'
+    /// ("Cp2ZrMe+"). Digits before a sign with nothing to separate them are refused, since
+    /// "Co(NH3)63+" could mean several things.
+    fn split_charge(&self, from: usize) -> Result<(usize, Option<i32>), ParseError> {
         let t = self.text.trim_end();
-        let bytes = t.as_bytes();
-        let Some(&last) = bytes.last() else {
+        if t.len() <= from {
             return Err(ParseError {
                 input: self.input.to_string(),
                 message: "empty formula".into(),
@@ -272,9 +394,36 @@ impl<'a> Parser<'a> {
                 suggestion: None,
                 hint: Some("write a complex, e.g. Fe(CO)5".into()),
             });
-        };
+        }
+        let bytes = t.as_bytes();
+        let last = bytes[bytes.len() - 1];
+        // "(3+)" at the end
+        if last == b')' {
+            if let Some(open) = t.rfind('(') {
+                if let Some(q) = charge_value(&t[open + 1..t.len() - 1]) {
+                    if open > from {
+                        return Ok((open, Some(q)));
+                    }
+                }
+            }
+        }
+        // "^3+" or a superscript at the end
+        if let Some(caret) = t.rfind('^') {
+            if caret >= from {
+                return match charge_value(&t[caret + 1..]) {
+                    Some(q) => Ok((caret, Some(q))),
+                    None => Err(self
+                        .error(
+                            caret,
+                            t.len() - caret,
+                            "a charge must be like ^3+ or ^2-".into(),
+                        )
+                        .with_hint("write e.g. [Co(NH3)6]^3+ or [Co(NH3)6]3+")),
+                };
+            }
+        }
         let (start, sign, digits) = if last == b'+' || last == b'-' {
-            let d = bytes[..bytes.len() - 1]
+            let d = bytes[from..bytes.len() - 1]
                 .iter()
                 .rev()
                 .take_while(|b| b.is_ascii_digit())
@@ -282,22 +431,30 @@ impl<'a> Parser<'a> {
             let start = bytes.len() - 1 - d;
             (start, last, &t[start..bytes.len() - 1])
         } else if last.is_ascii_digit() {
-            let d = bytes
+            let d = bytes[from..]
                 .iter()
                 .rev()
                 .take_while(|b| b.is_ascii_digit())
                 .count();
             let s = bytes.len() - d;
-            match s.checked_sub(1).map(|i| bytes[i]) {
+            match s.checked_sub(1).filter(|&i| i >= from).map(|i| bytes[i]) {
                 Some(sign @ (b'+' | b'-')) => (s - 1, sign, &t[s..]),
-                _ => return Ok((t.len(), 0)),
+                _ => return Ok((t.len(), None)),
             }
         } else {
-            return Ok((t.len(), 0));
+            return Ok((t.len(), None));
         };
+        if start <= from {
+            return Err(self.error(from, 1, "a formula cannot start with its charge".into()));
+        }
         let before = t[..start].trim_end();
         let spaced = before.len() < start;
-        if !(before.ends_with(']') || spaced) {
+        let after_word = digits.is_empty()
+            && before
+                .chars()
+                .last()
+                .is_some_and(|c| c.is_alphabetic() || c == ')' || c == '*');
+        if !(before.ends_with(']') || spaced || after_word) {
             return Err(self
                 .error(
                     start,
@@ -316,7 +473,50 @@ impl<'a> Parser<'a> {
                 .ok_or_else(|| self.error(start, t.len() - start, "charge too large".into()))?
         };
         let charge = if sign == b'+' { magnitude } else { -magnitude };
-        Ok((before.len(), charge))
+        Ok((before.len(), Some(charge)))
+    }
+
+    /// Counter-ions around a bracketed complex ion: cations before it (`K3[Fe(CN)6]`), anions
+    /// after it (`[Co(NH3)6]Cl3`). Returns the span of the complex ion and the charge the
+    /// counter-ions give it. Anything else leaves the text as it is.
+    fn counter_ions(
+        &self,
+        start: usize,
+        end: usize,
+        notes: &mut Vec<String>,
+    ) -> Result<(usize, usize, Option<i32>), ParseError> {
+        let t = &self.text[..end];
+        let Some(open) = t[start..].find('[').map(|i| i + start) else {
+            return Ok((start, end, None));
+        };
+        let Ok(close) = self.matching(open, end) else {
+            return Ok((start, end, None));
+        };
+        let before = &t[start..open];
+        let after = &t[close + 1..];
+        if after.starts_with(|c: char| c.is_ascii_digit()) {
+            // a multiplier: `[CpFe(CO)2]2` is a dimer, not a salt
+            return Ok((start, end, None));
+        }
+        let (Some(cations), Some(anions)) = (ion_list(before, CATIONS), ion_list(after, ANIONS))
+        else {
+            return Ok((start, end, None));
+        };
+        if cations.is_empty() && anions.is_empty() {
+            return Ok((start, end, None));
+        }
+        let outside: i32 = cations.iter().chain(&anions).map(|(_, q)| q).sum();
+        let names: Vec<String> = cations
+            .iter()
+            .chain(&anions)
+            .map(|(n, _)| n.clone())
+            .collect();
+        notes.push(format!(
+            "{} taken as counter-ion{} outside the coordination sphere",
+            names.join(", "),
+            if names.len() == 1 { "" } else { "s" }
+        ));
+        Ok((open, close + 1, Some(-outside)))
     }
 
     /// Read items until `end` or the closing character.
@@ -482,32 +682,118 @@ impl<'a> Parser<'a> {
         }
     }
 
-    /// The contents of a parenthesised group: a catalogue entry (possibly with a mode prefix),
-    /// or else a fragment with its own metal.
+    /// The contents of a parenthesised group: a catalogue entry (possibly with mode prefixes
+    /// and bond marks: `(η5-C5H5)`, `(μ-η2:η2-PhCCPh)`, `(=CHPh)`), or else a fragment with its
+    /// own metal.
     fn paren_group(&mut self, start: usize, end: usize, depth: usize) -> Result<Item, ParseError> {
-        let content = self.text[start..end].trim();
+        let raw = &self.text[start..end];
+        let mut at = start + (raw.len() - raw.trim_start().len());
+        let mut content = raw.trim();
+        // a bond drawn in the formula ("=CHPh", "≡CR") says nothing the ligand does not
+        for mark in ['=', '≡'] {
+            if let Some(c) = content.strip_prefix(mark) {
+                at += mark.len_utf8();
+                content = c;
+            }
+        }
         if content.is_empty() {
             return Err(self.error(start.saturating_sub(1), 2, "empty parentheses".into()));
         }
         if let Some(l) = self.lookup.exact(content) {
             return Ok(Item::Ligand(BoundLigand::new(l.clone(), 0, 1)));
         }
-        if let Some((label, rest)) = content.split_once('-') {
+        // one or more mode prefixes: "μ-Cl", "η5-C5H5", "μ-η2:η2-PhCCPh"
+        let mut labels: Vec<(&str, usize)> = Vec::new();
+        let mut rest = content;
+        let mut rest_at = at;
+        while let Some((label, tail)) = rest.split_once('-') {
+            labels.push((label, rest_at));
+            rest_at += label.len() + 1;
+            rest = tail;
             if let Some(l) = self.lookup.exact(rest.trim()) {
-                let at = start + label.len() + 1;
-                return self.with_mode(l, label, start, at).map(Item::Ligand);
+                return self.with_labels(l, &labels).map(Item::Ligand);
             }
-            if looks_like_label(label) {
-                let at = start + label.len() + 1;
-                return Err(self.unknown(at, rest));
+            if !(looks_like_label(label) || label.contains(':')) {
+                break;
             }
         }
+        if let Some(&(label, _)) = labels.first() {
+            if looks_like_label(label) && !rest.is_empty() {
+                return Err(self.unknown(rest_at, rest));
+            }
+        }
+        // a fragment in parentheses starts with its metal, "(CpFe(CO)2)": "(OPr)" is an
+        // unknown ligand, not an oxo on praseodymium
+        let starts_with_metal =
+            content.starts_with('[') || element::symbol_prefix(content).is_some();
+        if !starts_with_metal {
+            return Err(self.unknown(at, content));
+        }
         let has_metal = has_metal_token(content);
-        let mut p = start;
+        let mut p = at;
         match self.sequence(&mut p, end, None, depth + 1) {
-            Ok(g) if g.metal_total() > 0 => Ok(Item::Group(g)),
+            Ok(g) if g.metal_total() > 0 => {
+                if g.ligands.is_empty() && g.children.is_empty() {
+                    // "(Co)5" is far more often a slip for (CO)5 than a metal in parentheses
+                    let mut e = self.error(
+                        at,
+                        content.len(),
+                        format!("'{content}' in parentheses is a metal, not a ligand"),
+                    );
+                    e.suggestion = self.lookup.suggest(content);
+                    e.hint = Some("ligands are case-sensitive: CO is carbonyl, Co cobalt".into());
+                    return Err(e);
+                }
+                Ok(Item::Group(g))
+            }
             Err(e) if has_metal => Err(e),
-            _ => Err(self.unknown(start, content)),
+            _ => Err(self.unknown(at, content)),
+        }
+    }
+
+    /// Pick the mode that a run of prefixes names: a bridging label wins (`μ-η2:η2-`), "η" with
+    /// no number means the ligand's highest hapticity.
+    fn with_labels(
+        &self,
+        ligand: &Arc<LigandDef>,
+        labels: &[(&str, usize)],
+    ) -> Result<BoundLigand, ParseError> {
+        let normalized: Vec<String> = labels
+            .iter()
+            .map(|(l, _)| normalize_label(l.split(':').next().unwrap_or(l)))
+            .collect();
+        let pick = normalized
+            .iter()
+            .find(|l| l.starts_with('μ'))
+            .or_else(|| normalized.first());
+        let Some(label) = pick else {
+            return Ok(BoundLigand::new(ligand.clone(), 0, 1));
+        };
+        let index = if label == "η" {
+            ligand
+                .modes
+                .iter()
+                .enumerate()
+                .filter(|(_, m)| m.bridges == 1)
+                .max_by_key(|(_, m)| m.hapticity().unwrap_or(0))
+                .map(|(i, _)| i)
+        } else {
+            ligand.mode_index(label)
+        };
+        let (raw, label_at) = labels[normalized.iter().position(|l| l == label).unwrap_or(0)];
+        match index {
+            Some(i) => {
+                let mut b = BoundLigand::new(ligand.clone(), i, 1);
+                b.pinned = true;
+                Ok(b)
+            }
+            None => Err(self
+                .error(
+                    label_at,
+                    raw.len(),
+                    format!("{} has no '{}' binding mode", ligand.key, label),
+                )
+                .with_hint(&format!("its modes are: {}", ligand.mode_labels()))),
         }
     }
 
@@ -519,7 +805,11 @@ impl<'a> Parser<'a> {
         _at: usize,
     ) -> Result<BoundLigand, ParseError> {
         match ligand.mode_index(label) {
-            Some(i) => Ok(BoundLigand::new(ligand.clone(), i, 1)),
+            Some(i) => {
+                let mut b = BoundLigand::new(ligand.clone(), i, 1);
+                b.pinned = true;
+                Ok(b)
+            }
             None => Err(self
                 .error(
                     label_at,
@@ -557,8 +847,11 @@ impl<'a> Parser<'a> {
         let ligand = self.ligand_token(rest);
         let metal = element::symbol_prefix(rest);
         let metal_len = metal.map_or(0, |m| m.symbol.len());
+        // a tie ("Pr": propyl or praseodymium) goes to the ligand once a metal has been read,
+        // and to the metal while the formula has none yet ("PrCl3", "Cp2ZrPr2")
+        let ligand_wins = |len: usize| len > metal_len || (len == metal_len && self.metals > 0);
         match ligand {
-            Some((l, len)) if len >= metal_len => {
+            Some((l, len)) if metal.is_none() || ligand_wins(len) => {
                 Ok((Item::Ligand(BoundLigand::new(l.clone(), 0, 1)), len))
             }
             _ => match metal {
@@ -589,7 +882,17 @@ impl<'a> Parser<'a> {
     /// The longest catalogue token at the start of `text`, preferring "H" + multiplier over a
     /// token such as "H2" (so IrH2Cl is a dihydride; dihydrogen is written `(η2-H2)`).
     fn ligand_token(&self, text: &str) -> Option<(&'a Arc<LigandDef>, usize)> {
-        let (l, len) = self.lookup.longest_prefix(text)?;
+        // a token may not end inside a metal symbol: in "H2Os(CO)4" the water token "H2O"
+        // would swallow the O of osmium
+        let accept = |len: usize| {
+            let b = text.as_bytes();
+            !(len >= 1
+                && len < b.len()
+                && b[len - 1].is_ascii_uppercase()
+                && b[len].is_ascii_lowercase()
+                && element::by_symbol(&text[len - 1..len + 1]).is_some())
+        };
+        let (l, len) = self.lookup.longest_prefix(text, &accept)?;
         let matched = &text[..len];
         let head = matched.trim_end_matches(|c: char| c.is_ascii_digit());
         if head.len() < matched.len() && is_symbol_shaped(head) {
@@ -640,6 +943,63 @@ fn looks_like_label(label: &str) -> bool {
 fn has_metal_token(text: &str) -> bool {
     text.char_indices()
         .any(|(i, c)| c.is_ascii_uppercase() && element::symbol_prefix(&text[i..]).is_some())
+}
+
+/// "3+", "2-", "+", "-", "+3" as a signed number.
+fn charge_value(text: &str) -> Option<i32> {
+    let t = text.trim();
+    let (digits, sign) = if let Some(d) = t.strip_suffix('+') {
+        (d, 1)
+    } else if let Some(d) = t.strip_suffix('-') {
+        (d, -1)
+    } else if let Some(d) = t.strip_prefix('+') {
+        (d, 1)
+    } else if let Some(d) = t.strip_prefix('-') {
+        (d, -1)
+    } else {
+        return None;
+    };
+    let n: i32 = if digits.is_empty() {
+        1
+    } else if digits.bytes().all(|b| b.is_ascii_digit()) && digits.len() <= 2 {
+        digits.parse().ok()?
+    } else {
+        return None;
+    };
+    Some(sign * n)
+}
+
+/// Read `text` as a run of counter-ions from `table`, each optionally in parentheses and with a
+/// count: "Cl3", "(PF6)2", "K3", "NBu4". None when anything else is in the way.
+fn ion_list(text: &str, table: &[(&str, i32)]) -> Option<Vec<(String, i32)>> {
+    let mut out = Vec::new();
+    let mut rest = text.trim();
+    while !rest.is_empty() {
+        let (inner, after) = if let Some(r) = rest.strip_prefix('(') {
+            let close = r.find(')')?;
+            (&r[..close], &r[close + 1..])
+        } else {
+            let (name, _) = table.iter().find(|(n, _)| rest.starts_with(n))?;
+            (&rest[..name.len()], &rest[name.len()..])
+        };
+        let (name, q) = table.iter().find(|(n, _)| *n == inner)?;
+        let digits = after.bytes().take_while(u8::is_ascii_digit).count();
+        let count: i32 = if digits == 0 {
+            1
+        } else {
+            after[..digits].parse().ok().filter(|&c: &i32| c <= 12)?
+        };
+        out.push((
+            if count == 1 {
+                name.to_string()
+            } else {
+                format!("{name}{count}")
+            },
+            q * count,
+        ));
+        rest = after[digits..].trim_start();
+    }
+    Some(out)
 }
 
 fn word_at(text: &str) -> &str {

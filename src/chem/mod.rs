@@ -6,6 +6,7 @@ pub mod complex;
 pub mod count;
 pub mod edit;
 pub mod element;
+pub mod fit;
 pub mod formula;
 pub mod frac;
 pub mod ligand;

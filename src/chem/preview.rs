@@ -89,6 +89,9 @@ pub fn preview(
 ) -> Result<Preview, EditError> {
     let (after, focus) = apply(before, edit)?;
     let after_report = count(&after);
+    if let Some(why) = after_report.impossible() {
+        return Err(EditError::Impossible(why));
+    }
     let (leaving, entering) = match edit {
         Edit::Swap { slot, ligand, .. } => (
             before.group(*slot).map(|b| b.ligand.clone()),

@@ -24,6 +24,9 @@ pub struct SpinInput {
     pub rings: u32,
     /// Mean spectrochemical score of the ligands (see `FieldClass::score`).
     pub field: f64,
+    /// A planar tetradentate ligand (porphyrinate, salen, phthalocyaninate) holds the metal
+    /// square planar whatever its d count.
+    pub planar_ligand: bool,
 }
 
 /// The likely geometry and spin of a metal centre.
@@ -75,7 +78,7 @@ fn metal_ion_score(symbol: &str, os: i64) -> f64 {
         ("Fe", 3) => 0.6,
         ("Cr", 3) => 0.7,
         ("Mn", 3) | ("V", 3) => 0.8,
-        ("Co", 3) => 1.2,
+        ("Co", 3) => 1.45,
         (_, os) if os <= 2 => 0.3,
         (_, 3) => 0.8,
         _ => 1.2,
@@ -124,6 +127,31 @@ pub fn guess(input: &SpinInput) -> SpinGuess {
     } else {
         10.0
     };
+    // four-coordinate 3d d8 between the field regimes: NiCl2(PPh3)2 is tetrahedral and
+    // paramagnetic, NiCl2(PEt3)2 square planar and diamagnetic (Greenwood & Earnshaw, 2nd ed.,
+    // 1997, ch. 27); the field alone cannot tell them apart
+    if input.sites == 4
+        && d == 8
+        && input.first_row
+        && (9..=11).contains(&input.group)
+        && !input.planar_ligand
+        && (1.0..1.9).contains(&strength)
+    {
+        let planar_first = strength >= 1.45;
+        return SpinGuess {
+            geometry: "square planar or tetrahedral",
+            unpaired: if planar_first { vec![0, 2] } else { vec![2, 0] },
+            ambiguous: true,
+            basis: Basis(
+                "four-coordinate 3d d8: square planar (0) or tetrahedral (2)",
+                Some(if planar_first {
+                    "stronger field: planar more likely"
+                } else {
+                    "weaker field: tetrahedral more likely"
+                }),
+            ),
+        };
+    }
     let (hs, ls, basis): (u8, u8, &str) = match geometry {
         "sandwich" | "bent sandwich" => (
             HIGH_SPIN_OCT[du],
@@ -168,7 +196,7 @@ pub fn guess(input: &SpinInput) -> SpinGuess {
     } else if matches!(geometry, "sandwich" | "bent sandwich") && strength < 2.1 {
         // Mn(II) metallocenes sit at the crossover: Cp2Mn is high spin, Cp*2Mn low spin
         (
-            vec![ls, hs],
+            vec![hs, ls],
             true,
             Basis(
                 basis,
@@ -250,6 +278,13 @@ fn geometry(input: &SpinInput) -> &'static str {
     if input.rings == 1 {
         return "piano stool";
     }
+    if input.planar_ligand && input.sites >= 4 {
+        return match input.sites {
+            4 => "square planar",
+            5 => "square pyramidal",
+            _ => "octahedral",
+        };
+    }
     match input.sites {
         2 => "linear",
         3 => "trigonal planar",
@@ -285,6 +320,7 @@ mod tests {
             electrons: 18,
             symbol,
             group: 9,
+            planar_ligand: false,
             oxidation_state: os,
             first_row: true,
             f_block: false,
@@ -305,9 +341,9 @@ mod tests {
 
     #[test]
     fn intermediate_fields_are_flagged() {
-        // d6 Co(III) with an O-donor set sits between the two regimes
-        let g = guess(&centre("Co", 6, 3, 6, 0.5));
+        // d5 Fe(III) with an N-donor set sits between the two regimes
+        let g = guess(&centre("Fe", 5, 3, 6, 1.0));
         assert!(g.ambiguous);
-        assert_eq!(g.unpaired, vec![0, 4]);
+        assert_eq!(g.unpaired, vec![1, 5]);
     }
 }

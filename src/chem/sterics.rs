@@ -8,16 +8,16 @@
 //! from Tolman's NiL4 equilibria instead (Tolman, Seidel & Gosser, J. Am. Chem. Soc. 1974, 96,
 //! 53, summarised in Tolman 1977): NiL4 starts to lose L at θ about 130-132° (PEt3, Kd ~ 1e-2 M),
 //! a sum of 4 f(132°) = 1.19, and is mostly NiL3 at 145° (PPh3), a sum of 1.40. nonet calls a
-//! sphere crowded from 1.2 (ligand loss likely) and overfull from 1.4. These are rules of thumb
-//! derived from that data, not limits.
+//! sphere crowded from 1.15 (ligand loss likely) and overfull from 1.35, just below those two
+//! sums. These are rules of thumb derived from that data, not limits.
 
 use super::complex::Complex;
 use super::edit::Place;
 
 /// From this sum of sphere fractions a ligand is likely to dissociate (NiL4, L = PEt3).
-pub const CROWDED: f64 = 1.2;
+pub const CROWDED: f64 = 1.15;
 /// From this sum the complex is expected to shed a ligand (NiL4, L = PPh3: mostly NiL3).
-pub const OVERFULL: f64 = 1.4;
+pub const OVERFULL: f64 = 1.35;
 
 /// Fraction of the sphere covered by a cone of apex angle `theta_deg`.
 pub fn sphere_fraction(theta_deg: f64) -> f64 {
@@ -91,7 +91,8 @@ mod tests {
     #[test]
     fn thresholds_follow_the_nickel_series() {
         assert!(4.0 * sphere_fraction(118.0) < CROWDED);
-        assert!(4.0 * sphere_fraction(132.0) < CROWDED + 0.01);
+        assert!(4.0 * sphere_fraction(132.0) >= CROWDED);
+        assert!(4.0 * sphere_fraction(132.0) < OVERFULL);
         assert!(4.0 * sphere_fraction(145.0) >= OVERFULL);
     }
 

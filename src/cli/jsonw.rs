@@ -188,8 +188,15 @@ fn contribution(buf: &mut Vec<u8>, c: &Contribution) {
 fn metal(buf: &mut Vec<u8>, m: &MetalReport) {
     let mut o = Json::object(buf);
     o.str("symbol", m.symbol);
-    o.int("group", m.group as i64);
+    match m.group {
+        Some(g) => o.int("group", g as i64),
+        None => o.null("group"),
+    }
     o.int("valence_electrons", m.valence_electrons as i64);
+    match m.f_electrons {
+        Some(f) => o.frac("f_electrons", f),
+        None => o.null("f_electrons"),
+    }
     o.frac("electron_count", m.electron_count);
     o.frac("ionic_electron_count", m.ionic_electron_count);
     o.frac("oxidation_state", m.oxidation_state);

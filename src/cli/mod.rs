@@ -262,6 +262,15 @@ impl Counter<'_> {
         match chem::parse(input, self.cat) {
             Ok(complex) => {
                 let report = chem::count(&complex);
+                if let Some(why) = report.impossible() {
+                    let place = line.map(|n| format!("line {n}: ")).unwrap_or_default();
+                    eprintln!("error: {place}{input}: {why}");
+                    if self.json {
+                        self.flush(out)?;
+                        json::write_message(out, input, &why)?;
+                    }
+                    return Ok(false);
+                }
                 if self.json {
                     json::append_report(&mut self.buf, input, &report);
                     if self.buf.len() >= 1 << 16 {

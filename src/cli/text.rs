@@ -171,7 +171,10 @@ fn write_metal(
     writeln!(
         out,
         "    {:<16} {:<7} {:<6} {:>8} {:>8}",
-        format!("{} (group {})", m.symbol, m.group),
+        match m.group {
+            Some(g) => format!("{} (group {g})", m.symbol),
+            None => format!("{} (f block)", m.symbol),
+        },
         "",
         "",
         m.valence_electrons,

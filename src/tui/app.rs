@@ -404,6 +404,10 @@ impl App {
             return;
         }
         match parse(&text, self.cat.as_ref()) {
+            Ok(c) if count(&c).impossible().is_some() => {
+                let why = count(&c).impossible().unwrap_or_default();
+                self.notice(&why, true);
+            }
             Ok(c) => {
                 self.undo.push(self.complex.clone());
                 self.redo.clear();

@@ -13,7 +13,6 @@ mod theme;
 mod ui;
 
 use std::io::{self, Write};
-use std::sync::atomic::{AtomicUsize, Ordering};
 use std::sync::Arc;
 use std::time::Duration;
 
@@ -39,28 +38,20 @@ pub fn draw(f: &mut ratatui::Frame, app: &App, theme: &Theme) {
     ui::render(f, app, theme);
 }
 
-/// Run the TUI until the user quits; returns the exit status (128 + n after signal n).
+/// Run the TUI until the user quits; returns the exit status. SIGTERM, SIGHUP, SIGINT and
+/// SIGQUIT restore the terminal and end the process with 128 + n.
 pub fn run(
     cat: Arc<Catalogue>,
     complex: Complex,
     title: String,
     ascii: bool,
 ) -> anyhow::Result<u8> {
-    let signal = Arc::new(AtomicUsize::new(0));
-    for sig in [
-        signal_hook::consts::SIGTERM,
-        signal_hook::consts::SIGHUP,
-        signal_hook::consts::SIGINT,
-        signal_hook::consts::SIGQUIT,
-    ] {
-        signal_hook::flag::register_usize(sig, Arc::clone(&signal), sig as usize)
-            .context("installing signal handlers")?;
-    }
     let theme = Theme::from_env();
     let mut app = App::new(cat, complex, title, ascii);
+    watchdogs().context("installing signal handlers")?;
     let mut term = ratatui::try_init()
         .context("nonet's planner needs a terminal; for scripts use `nonet count` (see --help)")?;
-    let result = event_loop(&mut term, &mut app, &theme, &signal);
+    let result = event_loop(&mut term, &mut app, &theme);
     restore();
     result
 }
@@ -71,18 +62,39 @@ fn restore() {
     let _ = io::stdout().flush();
 }
 
+/// Two threads that end the process when the terminal is gone. They are needed because once
+/// the tty hangs up crossterm's reader spins on end-of-file inside its own loop and never
+/// hands control back, so the event loop cannot notice anything itself.
+fn watchdogs() -> io::Result<()> {
+    use signal_hook::consts::{SIGHUP, SIGINT, SIGQUIT, SIGTERM};
+    let mut signals = signal_hook::iterator::Signals::new([SIGTERM, SIGHUP, SIGINT, SIGQUIT])?;
+    std::thread::spawn(move || {
+        if let Some(sig) = signals.forever().next() {
+            restore();
+            std::process::exit(128 + sig);
+        }
+    });
+    // a dropped link may send no signal at all: look for the terminal now and then
+    std::thread::spawn(|| loop {
+        std::thread::sleep(Duration::from_millis(500));
+        match terminal::size() {
+            Ok((w, h)) if w > 0 && h > 0 => {}
+            _ => {
+                restore();
+                std::process::exit(129);
+            }
+        }
+    });
+    Ok(())
+}
+
 fn event_loop(
     term: &mut ratatui::DefaultTerminal,
     app: &mut App,
     theme: &Theme,
-    signal: &AtomicUsize,
 ) -> anyhow::Result<u8> {
     let mut dirty = true;
     loop {
-        let sig = signal.load(Ordering::Relaxed);
-        if sig != 0 {
-            return Ok(128u8.saturating_add(sig as u8));
-        }
         if app.quit {
             return Ok(0);
         }
@@ -95,13 +107,7 @@ fn event_loop(
             term.draw(|f| draw(f, app, theme))?;
             dirty = false;
         }
-        // wake now and then to notice signals; nothing is drawn unless something changed
-        match event::poll(Duration::from_millis(250)) {
-            Ok(false) => continue,
-            Ok(true) => {}
-            // the terminal went away (dropped link): leave instead of spinning
-            Err(_) => return Ok(129),
-        }
+        // block until something happens: nothing is drawn while the user is idle
         match event::read() {
             Ok(Event::Key(k)) => {
                 if is_suspend(&k) {
@@ -116,6 +122,7 @@ fn event_loop(
             }
             Ok(Event::Resize(..)) => dirty = true,
             Ok(_) => {}
+            // the terminal went away: leave instead of spinning
             Err(_) => return Ok(129),
         }
     }

@@ -182,7 +182,7 @@ fn lines<'a>(app: &App, p: &Preview, t: &Theme) -> Vec<Line<'a>> {
     };
     let mut crowd = format!("{cones}sphere {cb:.2} → {ca:.2}, {}", p.crowd_after.level());
     if ca >= CROWDED {
-        crowd.push_str(&format!(" (from {CROWDED:.1}, Tolman's NiL4 series)"));
+        crowd.push_str(&format!(" (from {CROWDED:.2}, Tolman's NiL4 series)"));
     }
     if !p.crowd_after.unknown.is_empty() {
         crowd.push_str(&format!(

@@ -40,6 +40,7 @@ pub fn arb_complex() -> impl Strategy<Value = Complex> {
                     .collect(),
                 shared: Vec::new(),
                 charge,
+                notes: Vec::new(),
             };
             for (li, mi, count) in groups {
                 let l = cat().ligands()[li].clone();

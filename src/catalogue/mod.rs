@@ -24,8 +24,11 @@ pub struct Catalogue {
     ligands: Vec<Arc<LigandDef>>,
     /// Formula token (key, formula, alias without spaces) -> ligand index.
     tokens: HashMap<String, usize, BuildHasherDefault<Fnv>>,
-    /// First byte of a token -> (token, ligand index), longest tokens first.
+    /// First byte of a token -> (token, ligand index) for tokens of two or more bytes, sorted
+    /// by second byte and then longest first.
     by_first: Vec<Vec<(String, usize)>>,
+    /// One-byte tokens ("H", "C", "O") by their byte.
+    single: Vec<Option<usize>>,
     /// Problems found while loading: bad files, bad entries, clashing tokens.
     pub warnings: Vec<SetError>,
     matcher: SkimMatcherV2,
@@ -134,19 +137,28 @@ impl Catalogue {
             }
         }
         let mut by_first: Vec<Vec<(String, usize)>> = vec![Vec::new(); 256];
+        let mut single: Vec<Option<usize>> = vec![None; 256];
         for (t, &i) in &tokens {
-            if let Some(&b) = t.as_bytes().first() {
-                by_first[b as usize].push((t.clone(), i));
+            match t.as_bytes() {
+                [b] => single[*b as usize] = Some(i),
+                [b, ..] => by_first[*b as usize].push((t.clone(), i)),
+                [] => {}
             }
         }
         for list in &mut by_first {
-            list.sort_by(|a, b| b.0.len().cmp(&a.0.len()).then(a.0.cmp(&b.0)));
+            list.sort_by(|a, b| {
+                a.0.as_bytes()[1]
+                    .cmp(&b.0.as_bytes()[1])
+                    .then(b.0.len().cmp(&a.0.len()))
+                    .then(a.0.cmp(&b.0))
+            });
         }
         let haystacks = ligands.iter().map(|l| search::haystack(l)).collect();
         Catalogue {
             ligands,
             tokens,
             by_first,
+            single,
             warnings,
             matcher: SkimMatcherV2::default(),
             haystacks,
@@ -219,18 +231,23 @@ impl LigandLookup for Catalogue {
         text: &str,
         accept: &dyn Fn(usize) -> bool,
     ) -> Option<(&Arc<LigandDef>, usize)> {
-        let first = *text.as_bytes().first()?;
-        let second = text.as_bytes().get(1).copied();
-        self.by_first[first as usize]
-            .iter()
-            .find(|(t, _)| {
-                let tb = t.as_bytes();
-                // compare the second byte first: most candidates fail there, without a memcmp
-                (tb.len() == 1 || tb.get(1).copied() == second)
-                    && text.starts_with(t.as_str())
-                    && accept(tb.len())
-            })
-            .map(|(t, i)| (&self.ligands[*i], t.len()))
+        let bytes = text.as_bytes();
+        let first = *bytes.first()? as usize;
+        if let Some(&second) = bytes.get(1) {
+            let list = &self.by_first[first];
+            // the run of tokens with this second byte, longest first
+            let from = list.partition_point(|(t, _)| t.as_bytes()[1] < second);
+            let hit = list[from..]
+                .iter()
+                .take_while(|(t, _)| t.as_bytes()[1] == second)
+                .find(|(t, _)| text.starts_with(t.as_str()) && accept(t.len()));
+            if let Some((t, i)) = hit {
+                return Some((&self.ligands[*i], t.len()));
+            }
+        }
+        self.single[first]
+            .filter(|_| accept(1))
+            .map(|i| (&self.ligands[i], 1))
     }
 
     fn suggest(&self, token: &str) -> Option<String> {

@@ -240,7 +240,7 @@ pub fn bond_refusal(
 /// Chem. Rev. 1977, 77, 313: such ligands favour ML3 and ML2 over ML4).
 const BULKY_CONE_ANGLE: f64 = 160.0;
 
-struct Tally {
+struct Tally<'a> {
     neutral: Frac,
     ionic: Frac,
     ionic_charge: Frac,
@@ -251,12 +251,12 @@ struct Tally {
     donors: Frac,
     field_sum: f64,
     field_weight: f64,
-    pi_donor: Vec<String>,
-    bulky: Vec<(String, f64)>,
+    pi_donor: Vec<&'a str>,
+    bulky: Vec<(&'a str, f64)>,
     contributions: Vec<Contribution>,
 }
 
-impl Tally {
+impl<'a> Tally<'a> {
     /// Mean spectrochemical score, weighted by positions taken; medium when nothing is known.
     fn field(&self) -> f64 {
         if self.field_weight > 0.0 {
@@ -266,7 +266,7 @@ impl Tally {
         }
     }
 
-    fn new() -> Tally {
+    fn new() -> Tally<'a> {
         Tally {
             neutral: Frac::ZERO,
             ionic: Frac::ZERO,
@@ -285,7 +285,7 @@ impl Tally {
     }
 
     /// Add `b`, of which this metal holds the fraction `share`.
-    fn add(&mut self, b: &BoundLigand, share: Frac, shared: bool) {
+    fn add(&mut self, b: &'a BoundLigand, share: Frac, shared: bool) {
         let m = b.mode();
         let count = share * b.count as i64;
         let neutral = count * m.neutral_electrons();
@@ -309,12 +309,12 @@ impl Tally {
             self.field_sum += f.score() * w;
             self.field_weight += w;
         }
-        if b.ligand.pi_donor && !self.pi_donor.contains(&b.ligand.key) {
-            self.pi_donor.push(b.ligand.key.clone());
+        if b.ligand.pi_donor && !self.pi_donor.contains(&b.ligand.key.as_str()) {
+            self.pi_donor.push(&b.ligand.key);
         }
         if let Some(c) = &b.ligand.cone_angle {
             if c.value >= BULKY_CONE_ANGLE && !self.bulky.iter().any(|(k, _)| *k == b.ligand.key) {
-                self.bulky.push((b.ligand.key.clone(), c.value));
+                self.bulky.push((&b.ligand.key, c.value));
             }
         }
         self.contributions.push(Contribution {
@@ -605,7 +605,7 @@ fn bonds_per_metal(pre: &[Frac], targets: &[u8], total: u32) -> Vec<Frac> {
 fn metal_report(
     element: &'static super::element::Element,
     valence: i64,
-    t: Tally,
+    t: Tally<'_>,
     pre: Frac,
     os: Frac,
     d: Frac,

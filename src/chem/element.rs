@@ -128,9 +128,25 @@ pub static ELEMENTS: &[Element] = &[
 /// Look a metal up by its exact (case-sensitive) symbol.
 pub fn by_symbol(symbol: &str) -> Option<&'static Element> {
     let code = symbol_code(symbol.as_bytes())?;
-    ELEMENTS
-        .iter()
-        .find(|e| symbol_code(e.symbol.as_bytes()) == Some(code))
+    let index = symbol_index();
+    index
+        .binary_search_by_key(&code, |&(c, _)| c)
+        .ok()
+        .map(|i| &ELEMENTS[index[i].1])
+}
+
+/// Symbol codes sorted for binary search, built once.
+fn symbol_index() -> &'static [(u16, usize)] {
+    static INDEX: std::sync::OnceLock<Vec<(u16, usize)>> = std::sync::OnceLock::new();
+    INDEX.get_or_init(|| {
+        let mut v: Vec<(u16, usize)> = ELEMENTS
+            .iter()
+            .enumerate()
+            .filter_map(|(i, e)| symbol_code(e.symbol.as_bytes()).map(|c| (c, i)))
+            .collect();
+        v.sort_unstable();
+        v
+    })
 }
 
 /// A one- or two-letter symbol packed into an integer, so look-ups compare numbers, not

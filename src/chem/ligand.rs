@@ -143,6 +143,9 @@ pub struct BindingMode {
     /// n of an ηn label (n >= 2), worked out once from the label.
     #[serde(skip)]
     hapto: Option<u8>,
+    /// The class as text ("L2X"), written once: reports print it for every ligand.
+    #[serde(skip)]
+    class_text: String,
 }
 
 impl BindingMode {
@@ -169,6 +172,7 @@ impl BindingMode {
         };
         BindingMode {
             hapto,
+            class_text: class.to_string(),
             ionic_charge: -(class.x as i8),
             label,
             class,
@@ -182,6 +186,11 @@ impl BindingMode {
 
     pub fn neutral_electrons(&self) -> i64 {
         self.class.neutral_electrons()
+    }
+
+    /// The class as text, "L2X".
+    pub fn class_text(&self) -> &str {
+        &self.class_text
     }
 
     /// Electrons donated as a closed-shell ion: neutral count minus the ionic charge.

@@ -171,12 +171,11 @@ pub fn string(buf: &mut Vec<u8>, s: &str) {
 
 fn contribution(buf: &mut Vec<u8>, c: &Contribution) {
     let m = c.mode();
-    let mut class = String::with_capacity(8);
-    let _ = write!(class, "{}", m.class);
+    let class = m.class_text();
     let mut o = Json::object(buf);
     o.str("ligand", &c.ligand.key);
     o.str("mode", &m.label);
-    o.str("class", &class);
+    o.str("class", class);
     o.frac("count", c.count);
     o.frac("neutral", c.neutral);
     o.frac("ionic", c.ionic);
@@ -241,9 +240,16 @@ pub fn report_fields(buf: &mut Vec<u8>, r: &Report) {
         float(b, x)
     });
     o.bool("spin_ambiguous", r.spin_ambiguous);
-    let mut basis = String::with_capacity(96);
-    let _ = write!(basis, "{}", r.spin_basis);
-    o.str("spin_basis", &basis);
+    match r.spin_basis.1 {
+        None => o.str("spin_basis", r.spin_basis.0),
+        Some(regime) => {
+            let mut basis = String::with_capacity(r.spin_basis.0.len() + regime.len() + 2);
+            basis.push_str(r.spin_basis.0);
+            basis.push_str("; ");
+            basis.push_str(regime);
+            o.str("spin_basis", &basis);
+        }
+    }
     o.array("hazards", &r.hazards, |b, h| {
         let mut h_o = Json::object(b);
         h_o.str("ligand", &h.0.key);

@@ -84,8 +84,10 @@ impl Catalogue {
             .chain(l.aliases.iter().map(String::as_str))
             .chain(std::iter::once(l.family.as_str()));
         let mut best: Option<i64> = None;
+        let family = l.aliases.len() + 3;
         for (i, f) in fields.enumerate() {
-            let bonus = if f.eq_ignore_ascii_case(query) {
+            // an exact name wins; an exact family only groups, it does not pick one ligand
+            let bonus = if i != family && f.eq_ignore_ascii_case(query) {
                 1000
             } else {
                 0

@@ -37,9 +37,9 @@ pub struct Crowding {
 impl Crowding {
     pub fn level(&self) -> &'static str {
         if self.total >= OVERFULL {
-            "overfull, expect ligand loss"
+            "overfull"
         } else if self.total >= CROWDED {
-            "crowded, ligand loss likely"
+            "crowded"
         } else {
             "room to spare"
         }

@@ -33,6 +33,14 @@ use crate::chem::Complex;
 pub const DEMO_FORMULA: &str = "HRh(CO)(PPh3)3";
 pub const DEMO_TITLE: &str = "demo (invented): Lindqvist group, hydroformylation catalyst tuning";
 
+/// The help overlay's lines as plain text (for tests and the docs).
+pub fn help_text(app: &App) -> Vec<String> {
+    ui::help_lines(app, &Theme { color: false })
+        .into_iter()
+        .map(|l| l.spans.iter().map(|s| s.content.as_ref()).collect())
+        .collect()
+}
+
 /// Draw the whole screen for `app` (also used by snapshot tests and benchmarks).
 pub fn draw(f: &mut ratatui::Frame, app: &App, theme: &Theme) {
     ui::render(f, app, theme);

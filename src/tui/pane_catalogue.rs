@@ -37,12 +37,15 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
     };
     lines.push(query_line);
     lines.push(Line::styled(
-        format!(
-            "family {} · class {} · {} of {}",
-            app.family.unwrap_or("all"),
-            app.class.unwrap_or("all"),
-            app.hits.len(),
-            app.cat.len()
+        plain(
+            app,
+            &format!(
+                "family {} · class {} · {} of {}",
+                app.family.unwrap_or("all"),
+                app.class.unwrap_or("all"),
+                app.hits.len(),
+                app.cat.len()
+            ),
         ),
         t.dim(),
     ));
@@ -102,7 +105,13 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
             plain(app, &l.name)
         );
         let used = 2 + key_len.max(10);
-        let rest: String = rest.chars().take(width.saturating_sub(used)).collect();
+        let room = width.saturating_sub(used);
+        // a name cut to a letter or two says nothing: leave it out
+        let rest: String = if rest.chars().count() > room && room < 26 {
+            rest.chars().take(room.min(19)).collect::<String>().trim_end().to_string()
+        } else {
+            rest.chars().take(room).collect()
+        };
         spans.push(Span::styled(rest, base));
         lines.push(Line::from(spans));
     }

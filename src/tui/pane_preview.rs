@@ -81,7 +81,7 @@ fn row<'a>(name: &str, value: String, style: ratatui::style::Style, t: &Theme) -
 
 fn sat_word(m: &MetalReport) -> String {
     match m.saturation {
-        Saturation::Saturated => format!("saturated ({} e)", m.target),
+        Saturation::Saturated => format!("saturated {}", m.target),
         Saturation::Unsaturated => format!("{} e short", m.electrons_short),
         Saturation::Above18 => "above 18".into(),
         Saturation::NotApplicable => "n/a".into(),
@@ -125,11 +125,11 @@ fn lines<'a>(app: &App, p: &Preview, t: &Theme) -> Vec<Line<'a>> {
         _ => t.warn(),
     };
     out.push(row(
-        "metal",
+        "ox. state",
         format!(
-            "ox. state {}, d{}; {}, open sites {}",
+            "{} · {} · {} · open sites {}",
             arrow(signed(a.oxidation_state), signed(b.oxidation_state)),
-            arrow(a.d_electrons, b.d_electrons),
+            arrow(format!("d{}", a.d_electrons), format!("d{}", b.d_electrons)),
             arrow(sat_word(a), sat_word(b)),
             arrow(a.open_sites, b.open_sites)
         ),
@@ -161,10 +161,8 @@ fn lines<'a>(app: &App, p: &Preview, t: &Theme) -> Vec<Line<'a>> {
     out.push(row("spin", spin_text, spin_style, t));
     // sterics: cone angles in and out, and the crowding of the whole sphere
     let cone = |l: &Option<std::sync::Arc<crate::chem::LigandDef>>| {
-        l.as_ref().map(|l| match &l.cone_angle {
-            Some(c) => format!("{} {:.0}°", l.key, c.value),
-            None => format!("{} (no cone angle)", l.key),
-        })
+        l.as_ref()
+            .and_then(|l| l.cone_angle.as_ref().map(|c| format!("{} {:.0}°", l.key, c.value)))
     };
     let cones = match (cone(&p.leaving), cone(&p.entering)) {
         (Some(o), Some(i)) => format!("{o} out, {i} in; "),
@@ -180,9 +178,9 @@ fn lines<'a>(app: &App, p: &Preview, t: &Theme) -> Vec<Line<'a>> {
     } else {
         t.text()
     };
-    let mut crowd = format!("{cones}sphere {cb:.2} → {ca:.2}, {}", p.crowd_after.level());
+    let mut crowd = format!("{cones}sphere {cb:.2} → {ca:.2}: {}", p.crowd_after.level());
     if ca >= CROWDED {
-        crowd.push_str(&format!(" (from {CROWDED:.2}, Tolman's NiL4 series)"));
+        crowd.push_str(&format!(" (≥ {CROWDED:.2}, Tolman NiL4)"));
     }
     if !p.crowd_after.unknown.is_empty() {
         crowd.push_str(&format!(

@@ -17,6 +17,7 @@ use crate::chem::ligand::LigandDef;
 pub use load::{parse_set, SetError, FAMILIES};
 pub use search::Hit;
 
+// BUNDLED: the ligand sets compiled in by build.rs
 include!(concat!(env!("OUT_DIR"), "/bundled_sets.rs"));
 
 /// All known ligands, indexed for the parser and for search.

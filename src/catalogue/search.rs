@@ -53,10 +53,21 @@ impl Catalogue {
                 .collect();
         }
         let lower = query.to_lowercase();
+        // one or two letters match nearly everything; rank those by where they occur, which
+        // is much cheaper than the fuzzy matcher and keeps a keystroke well under 2 ms
+        let short = lower.chars().count() <= 2;
         let mut hits: Vec<(usize, i64)> = candidates
             .iter()
             .filter(|&&i| keep(&self.ligands[i]) && subsequence(&lower, &self.haystacks[i]))
-            .filter_map(|&i| self.score(&self.ligands[i], query).map(|s| (i, s)))
+            .filter_map(|&i| {
+                let l = &self.ligands[i];
+                let s = if short {
+                    Some(quick_score(l, &lower))
+                } else {
+                    self.score(l, query)
+                };
+                s.map(|s| (i, s))
+            })
             .collect();
         hits.sort_by(|a, b| {
             b.1.cmp(&a.1)
@@ -94,12 +105,47 @@ impl Catalogue {
             };
             // the key is what a chemist types: favour it slightly
             let key_bonus = if i == 0 { 5 } else { 0 };
+            // skip the matcher where the letters are not even there in order
+            if !subsequence_ci(query, f) {
+                continue;
+            }
             if let Some(s) = self.matcher.fuzzy_match(f, query) {
                 let s = s + bonus + key_bonus;
                 best = Some(best.map_or(s, |b| b.max(s)));
             }
         }
         best
+    }
+}
+
+/// Rank for one- or two-letter queries: the key starting with them first, then any name
+/// starting with them, then containing them, then merely holding the letters in order.
+fn quick_score(l: &LigandDef, lower: &str) -> i64 {
+    let starts = |f: &str| {
+        f.len() >= lower.len() && f.as_bytes()[..lower.len()].eq_ignore_ascii_case(lower.as_bytes())
+    };
+    let contains = |f: &str| {
+        f.as_bytes()
+            .windows(lower.len().max(1))
+            .any(|w| w.eq_ignore_ascii_case(lower.as_bytes()))
+    };
+    let names = || {
+        std::iter::once(l.name.as_str())
+            .chain(std::iter::once(l.formula.as_str()))
+            .chain(l.aliases.iter().map(String::as_str))
+    };
+    if l.key.eq_ignore_ascii_case(lower) {
+        1000
+    } else if starts(&l.key) {
+        300
+    } else if names().any(starts) {
+        200
+    } else if contains(&l.key) {
+        150
+    } else if names().any(contains) {
+        100
+    } else {
+        50
     }
 }
 
@@ -111,6 +157,15 @@ fn subsequence(needle: &str, hay: &str) -> bool {
         .chars()
         .filter(|c| !c.is_whitespace())
         .all(|n| hay.by_ref().any(|h| h == n))
+}
+
+/// `subsequence` without lower-casing first (ASCII letters compared case-blind).
+fn subsequence_ci(needle: &str, hay: &str) -> bool {
+    let mut hay = hay.bytes();
+    needle
+        .bytes()
+        .filter(|b| !b.is_ascii_whitespace())
+        .all(|n| hay.by_ref().any(|h| h.eq_ignore_ascii_case(&n)))
 }
 
 /// The lower-case text searched for a ligand: key, name, formula and aliases.

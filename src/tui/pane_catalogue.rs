@@ -96,22 +96,23 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
             spans.push(Span::styled(ch.to_string(), style));
         }
         let pad = 10usize.saturating_sub(key_len);
-        let rest = format!(
-            "{} {:<5}{:>5} {:>5}  {}",
+        let numbers = format!(
+            "{} {:<5}{:>5} {:>5}",
             " ".repeat(pad),
-            mode.class.to_string(),
+            mode.class_text(),
             cone,
-            tep,
-            plain(app, &l.name)
+            tep
         );
-        let used = 2 + key_len.max(10);
-        let room = width.saturating_sub(used);
-        // a name cut to a letter or two says nothing: leave it out
-        let rest: String = if rest.chars().count() > room && room < 26 {
-            rest.chars().take(room.min(19)).collect::<String>().trim_end().to_string()
+        let used = 2 + key_len.max(10) + numbers.chars().count() - pad;
+        let room = width.saturating_sub(used + 2);
+        // the numbers always show; the name only where a useful part of it fits
+        let name = plain(app, &l.name);
+        let name: String = if room >= 8 {
+            name.chars().take(room).collect()
         } else {
-            rest.chars().take(room).collect()
+            String::new()
         };
+        let rest = format!("{numbers}  {name}");
         spans.push(Span::styled(rest, base));
         lines.push(Line::from(spans));
     }

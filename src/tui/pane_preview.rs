@@ -159,10 +159,28 @@ fn lines<'a>(app: &App, p: &Preview, t: &Theme) -> Vec<Line<'a>> {
         ),
     };
     out.push(row("spin", spin_text, spin_style, t));
+    // safety before sterics and mechanism: on a small screen it must not be the line cut off
+    if let Some(l) = &p.entering {
+        if !l.hazards.is_empty() {
+            out.push(row(
+                "caution",
+                format!(
+                    "! {}: {}; consult the safety data sheet and local rules",
+                    l.key,
+                    l.hazards.join(" ")
+                ),
+                t.warn(),
+                t,
+            ));
+        }
+    }
     // sterics: cone angles in and out, and the crowding of the whole sphere
     let cone = |l: &Option<std::sync::Arc<crate::chem::LigandDef>>| {
-        l.as_ref()
-            .and_then(|l| l.cone_angle.as_ref().map(|c| format!("{} {:.0}°", l.key, c.value)))
+        l.as_ref().and_then(|l| {
+            l.cone_angle
+                .as_ref()
+                .map(|c| format!("{} {:.0}°", l.key, c.value))
+        })
     };
     let cones = match (cone(&p.leaving), cone(&p.entering)) {
         (Some(o), Some(i)) => format!("{o} out, {i} in; "),
@@ -180,7 +198,8 @@ fn lines<'a>(app: &App, p: &Preview, t: &Theme) -> Vec<Line<'a>> {
     };
     let mut crowd = format!("{cones}sphere {cb:.2} → {ca:.2}: {}", p.crowd_after.level());
     if ca >= CROWDED {
-        crowd.push_str(&format!(" (≥ {CROWDED:.2}, Tolman NiL4)"));
+        let from = if ca >= OVERFULL { OVERFULL } else { CROWDED };
+        crowd.push_str(&format!(" (≥ {from:.2}, Tolman NiL4)"));
     }
     if !p.crowd_after.unknown.is_empty() {
         crowd.push_str(&format!(
@@ -211,20 +230,6 @@ fn lines<'a>(app: &App, p: &Preview, t: &Theme) -> Vec<Line<'a>> {
     }
     if let Some(m) = p.mechanism {
         out.push(row("mechanism", m.text().to_string(), t.text(), t));
-    }
-    if let Some(l) = &p.entering {
-        if !l.hazards.is_empty() {
-            out.push(row(
-                "caution",
-                format!(
-                    "! {}: {}; consult the safety data sheet and local rules",
-                    l.key,
-                    l.hazards.join(" ")
-                ),
-                t.warn(),
-                t,
-            ));
-        }
     }
     out
 }

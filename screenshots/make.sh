@@ -1,0 +1,44 @@
+#!/usr/bin/env bash
+# Drive the real planner in tmux, capture the screens with their colours, and turn them into
+# PNG images for the README: ANSI -> HTML (ansi2html.py) -> headless Chromium screenshot.
+# Needs tmux and Debian's chromium (apt-get install tmux chromium fonts-dejavu-core).
+# Usage: screenshots/make.sh
+set -euo pipefail
+cd "$(dirname "$0")/.."
+cargo build --release --quiet
+out=screenshots
+work=$(mktemp -d)
+trap 'rm -rf "$work"' EXIT
+export NONET_CONFIG_DIR="$work/config"
+chrome=$(command -v chromium || command -v chromium-browser)
+
+# scene NAME COLS ROWS KEYS...: start the planner, type the keys, capture the screen
+scene() {
+  local name=$1 cols=$2 rows=$3
+  shift 3
+  local sock="nonet-shots-$name"
+  tmux -L "$sock" -f /dev/null new-session -d -s shot -x "$cols" -y "$rows" \
+    "LANG=C.UTF-8 NONET_CONFIG_DIR=$NONET_CONFIG_DIR target/release/nonet"
+  sleep 1
+  for k in "$@"; do
+    tmux -L "$sock" send-keys -t shot "$k"
+    sleep 0.3
+  done
+  sleep 0.5
+  tmux -L "$sock" capture-pane -e -p -t shot > "$work/$name.ansi"
+  tmux -L "$sock" kill-server 2>/dev/null || true
+  python3 "$out/ansi2html.py" "$work/$name.ansi" > "$work/$name.html"
+  local width=$((cols * 9 + 16)) height=$((rows * 19 + 16))
+  "$chrome" --headless --no-sandbox --disable-gpu --disable-quic --no-first-run \
+    --disable-background-networking --disable-component-update --disable-sync \
+    --user-data-dir="$work/chrome" --hide-scrollbars \
+    --window-size="$width,$height" --screenshot="$out/$name.png" "file://$work/$name.html" \
+    >/dev/null 2>&1
+  echo "wrote $out/$name.png"
+}
+
+scene demo_120x40 120 40
+scene swap_preview_120x40 120 40 / P M e 3
+scene ring_slip_120x40 120 40 e 'CpMn(CO)3' Enter j j j m
+scene help_80x24 80 24 '?'
+scene narrow_80x24 80 24 j j / P C y 3

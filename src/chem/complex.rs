@@ -3,7 +3,7 @@
 
 use std::sync::Arc;
 
-use super::element::Element;
+use super::element::{is_symbol_shaped, Element};
 use super::frac::push_int;
 use super::ligand::{ascii_label, BindingMode, LigandDef};
 
@@ -224,16 +224,6 @@ pub fn push_charge(s: &mut String, c: i64) {
         push_int(s, c.abs());
     }
     s.push(if c > 0 { '+' } else { '-' });
-}
-
-/// "H", "Cl", "O": one upper-case letter and at most one lower-case one.
-fn is_symbol_shaped(s: &str) -> bool {
-    let b = s.as_bytes();
-    match b.len() {
-        1 => b[0].is_ascii_uppercase(),
-        2 => b[0].is_ascii_uppercase() && b[1].is_ascii_lowercase(),
-        _ => false,
-    }
 }
 
 fn tidy(list: &mut Vec<BoundLigand>) {

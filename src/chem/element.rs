@@ -149,6 +149,17 @@ fn symbol_index() -> &'static [(u16, usize)] {
     })
 }
 
+/// "H", "Cl", "O": shaped like an element symbol, one upper-case letter and at most one
+/// lower-case one.
+pub fn is_symbol_shaped(s: &str) -> bool {
+    let b = s.as_bytes();
+    match b.len() {
+        1 => b[0].is_ascii_uppercase(),
+        2 => b[0].is_ascii_uppercase() && b[1].is_ascii_lowercase(),
+        _ => false,
+    }
+}
+
 /// A one- or two-letter symbol packed into an integer, so look-ups compare numbers, not
 /// strings (the parser asks for every bare token).
 fn symbol_code(b: &[u8]) -> Option<u16> {

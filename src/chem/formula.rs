@@ -12,7 +12,7 @@ use std::fmt;
 use std::sync::Arc;
 
 use super::complex::{BoundLigand, Complex, MetalSite};
-use super::element::{self, Element};
+use super::element::{self, is_symbol_shaped, Element};
 use super::ligand::{normalize_label, LigandDef};
 
 /// Where the parser finds ligands. The catalogue implements it; tests may use a small map.
@@ -797,31 +797,14 @@ impl<'a> Parser<'a> {
         }
     }
 
+    /// The mode one prefix names (`η3-` in a bare token).
     fn with_mode(
         &self,
         ligand: &Arc<LigandDef>,
         label: &str,
         label_at: usize,
-        _at: usize,
     ) -> Result<BoundLigand, ParseError> {
-        match ligand.mode_index(label) {
-            Some(i) => {
-                let mut b = BoundLigand::new(ligand.clone(), i, 1);
-                b.pinned = true;
-                Ok(b)
-            }
-            None => Err(self
-                .error(
-                    label_at,
-                    label.len(),
-                    format!(
-                        "{} has no '{}' binding mode",
-                        ligand.key,
-                        normalize_label(label)
-                    ),
-                )
-                .with_hint(&format!("its modes are: {}", ligand.mode_labels()))),
-        }
+        self.with_labels(ligand, &[(label, label_at)])
     }
 
     fn unknown(&self, at: usize, token: &str) -> ParseError {
@@ -838,7 +821,7 @@ impl<'a> Parser<'a> {
             let label = &rest[..dash];
             let after = &rest[dash + 1..];
             if let Some((l, len)) = self.ligand_token(after) {
-                let b = self.with_mode(l, label, start, start + dash + 1)?;
+                let b = self.with_mode(l, label, start)?;
                 return Ok((Item::Ligand(b), dash + 1 + len));
             }
             let word = word_at(after);
@@ -915,16 +898,6 @@ enum Item {
     Metal(&'static Element),
     Ligand(BoundLigand),
     Group(Group),
-}
-
-/// "H", "O", "Cl": one upper-case letter and at most one lower-case one.
-fn is_symbol_shaped(s: &str) -> bool {
-    let b = s.as_bytes();
-    match b.len() {
-        1 => b[0].is_ascii_uppercase(),
-        2 => b[0].is_ascii_uppercase() && b[1].is_ascii_lowercase(),
-        _ => false,
-    }
 }
 
 /// Whether a mode prefix such as "η5", "eta5", "κ2", "mu3", "μ" begins `text` and ends in '-';

@@ -105,23 +105,30 @@ impl Frac {
 
 /// Append a whole number's decimal digits without the formatting machinery.
 pub fn push_int(s: &mut String, n: i64) {
-    let mut digits = [0u8; 20];
-    let mut i = digits.len();
+    let mut digits = [0u8; 21];
+    for &d in int_digits(n, &mut digits) {
+        s.push(d as char);
+    }
+}
+
+/// The decimal digits of `n`, with its sign, written into `buf`: the counting hot path prints
+/// many small integers and `format!` costs more than the count itself.
+pub fn int_digits(n: i64, buf: &mut [u8; 21]) -> &[u8] {
+    let mut i = buf.len();
     let mut m = n.unsigned_abs();
     loop {
         i -= 1;
-        digits[i] = b'0' + (m % 10) as u8;
+        buf[i] = b'0' + (m % 10) as u8;
         m /= 10;
         if m == 0 {
             break;
         }
     }
     if n < 0 {
-        s.push('-');
+        i -= 1;
+        buf[i] = b'-';
     }
-    for &d in &digits[i..] {
-        s.push(d as char);
-    }
+    &buf[i..]
 }
 
 impl PartialOrd for Frac {

@@ -105,21 +105,8 @@ impl<'a> Json<'a> {
 }
 
 fn int(buf: &mut Vec<u8>, v: i64) {
-    let mut digits = [0u8; 20];
-    let mut i = digits.len();
-    let mut m = v.unsigned_abs();
-    loop {
-        i -= 1;
-        digits[i] = b'0' + (m % 10) as u8;
-        m /= 10;
-        if m == 0 {
-            break;
-        }
-    }
-    if v < 0 {
-        buf.push(b'-');
-    }
-    buf.extend_from_slice(&digits[i..]);
+    let mut digits = [0u8; 21];
+    buf.extend_from_slice(crate::chem::frac::int_digits(v, &mut digits));
 }
 
 /// Whole numbers as integers, others as floats rounded to four decimals (as `Frac`'s serde form).

@@ -8,7 +8,7 @@ use ratatui::Frame;
 
 use super::app::{App, Focus, Mode};
 use super::theme::Theme;
-use super::ui::{block, plain};
+use super::ui::{block, marker, plain};
 
 pub fn render(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
     let focused =
@@ -68,15 +68,7 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
             .tep
             .as_ref()
             .map_or(String::new(), |c| format!("{:.0}", c.value));
-        let marker = if selected {
-            if app.ascii {
-                ">"
-            } else {
-                "▸"
-            }
-        } else {
-            " "
-        };
+        let marker = marker(app, selected);
         let mut spans = vec![Span::styled(format!("{marker} "), base)];
         // the key with its matched letters marked
         let key = plain(app, &l.key);

@@ -7,7 +7,7 @@ use ratatui::widgets::{Block, Paragraph};
 use ratatui::Frame;
 
 use super::app::{App, Focus, Mode};
-use super::ui::{block, plain};
+use super::ui::{block, marker, plain, plain_lines};
 use crate::chem::count::{MetalReport, Saturation};
 use crate::chem::edit::Place;
 
@@ -72,15 +72,7 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, theme: &super::theme::Theme)
         let (neutral, ionic) = contribution.map_or((String::new(), String::new()), |c| {
             (c.neutral.to_string(), c.ionic.to_string())
         });
-        let marker = if i == app.row {
-            if app.ascii {
-                ">"
-            } else {
-                "▸"
-            }
-        } else {
-            " "
-        };
+        let marker = marker(app, i == app.row);
         let text = format!(
             "{marker} {:<11}{:<7}{:<6}{:>4}{:>6}",
             truncate(&name, 11),
@@ -172,21 +164,7 @@ fn summary_lines<'a>(app: &App, t: &super::theme::Theme) -> Vec<Line<'a>> {
         },
     ));
     out.push(Line::styled(r.geometry.to_string(), t.dim()));
-    out.into_iter()
-        .map(|l| {
-            if app.ascii {
-                Line::from(
-                    l.spans
-                        .into_iter()
-                        .map(|s| Span::styled(plain(app, &s.content), s.style))
-                        .collect::<Vec<_>>(),
-                )
-                .style(l.style)
-            } else {
-                l
-            }
-        })
-        .collect()
+    plain_lines(app, out)
 }
 
 fn signed(m: &MetalReport) -> String {

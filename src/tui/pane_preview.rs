@@ -9,7 +9,7 @@ use ratatui::Frame;
 
 use super::app::{App, Pending};
 use super::theme::Theme;
-use super::ui::{block, plain};
+use super::ui::{block, plain, plain_lines};
 use crate::chem::count::{MetalReport, Saturation};
 use crate::chem::preview::Preview;
 use crate::chem::spin::spin_only_moment;
@@ -43,22 +43,7 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
         ],
         Some(Ok(p)) => lines(app, p, t),
     };
-    let lines: Vec<Line> = if app.ascii {
-        lines
-            .into_iter()
-            .map(|l| {
-                Line::from(
-                    l.spans
-                        .into_iter()
-                        .map(|s| Span::styled(plain(app, &s.content), s.style))
-                        .collect::<Vec<_>>(),
-                )
-                .style(l.style)
-            })
-            .collect()
-    } else {
-        lines
-    };
+    let lines = plain_lines(app, lines);
     f.render_widget(Paragraph::new(lines).wrap(Wrap { trim: false }), inner);
 }
 

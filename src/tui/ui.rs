@@ -38,6 +38,34 @@ pub fn plain(app: &App, s: &str) -> String {
     }
 }
 
+/// The mark before the selected row of a list.
+pub fn marker(app: &App, selected: bool) -> &'static str {
+    match (selected, app.ascii) {
+        (false, _) => " ",
+        (true, true) => ">",
+        (true, false) => "▸",
+    }
+}
+
+/// Lines made plain ASCII span by span (keeping their styles) when the terminal needs it.
+pub fn plain_lines<'a>(app: &App, lines: Vec<Line<'a>>) -> Vec<Line<'a>> {
+    if !app.ascii {
+        return lines;
+    }
+    lines
+        .into_iter()
+        .map(|l| {
+            Line::from(
+                l.spans
+                    .into_iter()
+                    .map(|s| Span::styled(plain(app, &s.content), s.style))
+                    .collect::<Vec<_>>(),
+            )
+            .style(l.style)
+        })
+        .collect()
+}
+
 /// A pane's frame; the focused one is bold and says so in its title.
 pub fn block<'a>(app: &App, title: &'a str, focused: bool, t: &Theme) -> Block<'a> {
     let mark = if focused { " *" } else { "" };

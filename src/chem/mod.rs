@@ -12,6 +12,7 @@ pub mod frac;
 pub mod ligand;
 pub mod preview;
 pub mod spin;
+pub mod steps;
 pub mod sterics;
 
 pub use complex::{BoundLigand, Complex, MetalSite};

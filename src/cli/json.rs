@@ -44,6 +44,58 @@ pub fn write_error(out: &mut impl Write, input: &str, e: &ParseError) -> io::Res
     out.write_all(b"\n")
 }
 
+/// A step's product: `{"schema":1,"input":...,"step":...,"product":...,"changes":{...},` then
+/// the product's count fields.
+pub fn append_step(buf: &mut Vec<u8>, input: &str, o: &crate::chem::steps::Outcome) {
+    let (e, os, d, cn) = o.deltas();
+    buf.extend_from_slice(b"{\"schema\":1,\"input\":");
+    jsonw::string(buf, input);
+    buf.extend_from_slice(b",\"step\":");
+    jsonw::string(buf, &o.step.to_string());
+    buf.extend_from_slice(b",\"product\":");
+    jsonw::string(buf, &o.after.formula);
+    let _ = write!(
+        buf,
+        ",\"changes\":{{\"electrons\":{},\"oxidation_state\":{},\"d_electrons\":{},\"coordination_number\":{}}}",
+        json_num(e),
+        json_num(os),
+        json_num(d),
+        json_num(cn)
+    );
+    jsonw::report_fields(buf, &o.after);
+    buf.push(b'\n');
+}
+
+fn json_num(f: crate::chem::Frac) -> String {
+    serde_json::to_string(&f).unwrap_or_else(|_| "null".into())
+}
+
+/// `{"schema":1,"input":...,"step":...,"error":...}` for a refused step.
+pub fn write_step_error(
+    out: &mut impl Write,
+    input: &str,
+    step: &str,
+    error: &str,
+) -> io::Result<()> {
+    #[derive(Serialize)]
+    struct Line<'a> {
+        schema: u32,
+        input: &'a str,
+        step: &'a str,
+        error: &'a str,
+    }
+    serde_json::to_writer(
+        &mut *out,
+        &Line {
+            schema: SCHEMA,
+            input,
+            step,
+            error,
+        },
+    )?;
+    out.write_all(b"\n")
+}
+
 /// `{"schema":1,"input":...,"error":...}` for input rejected before parsing.
 pub fn write_message(out: &mut impl Write, input: &str, error: &str) -> io::Result<()> {
     #[derive(Serialize)]

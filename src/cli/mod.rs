@@ -76,6 +76,19 @@ pub enum Command {
         #[arg(value_name = "FORMULA")]
         formulas: Vec<String>,
     },
+    /// Take elementary steps from FORMULA, one after another, and report each product.
+    Step {
+        /// One JSON object per step per line (the count's fields plus step, product, changes).
+        #[arg(long)]
+        json: bool,
+        /// The complex to start from.
+        #[arg(value_name = "FORMULA")]
+        formula: String,
+        /// Steps such as "oxidative-addition H2", "migratory-insertion CO CH3",
+        /// "ring-slip Cp 3", "oxidation" (one quoted argument each).
+        #[arg(value_name = "STEP", required = true)]
+        steps: Vec<String>,
+    },
     /// List the ligand catalogue, or search it when QUERY is given.
     Ligands {
         /// Words to match against keys, names, formulas and aliases.
@@ -130,6 +143,11 @@ where
             batch,
             formulas,
         }),
+        Some(Command::Step {
+            json,
+            formula,
+            steps,
+        }) => step(&formula, &steps, json, ascii),
         Some(Command::Ligands { query, json, paths }) => {
             if paths {
                 return print_paths();
@@ -298,6 +316,50 @@ impl Counter<'_> {
             }
         }
     }
+}
+
+/// Apply steps one after another; a refused step stops the run with exit status 2.
+fn step(formula: &str, steps: &[String], json_out: bool, ascii: bool) -> anyhow::Result<Status> {
+    let cat = load_catalogue();
+    let mut complex = match chem::parse(formula, &cat) {
+        Ok(c) => c,
+        Err(e) => {
+            eprintln!("error: {}", e.render());
+            return Ok(Status::Rejected);
+        }
+    };
+    let stdout = io::stdout();
+    let mut out = BufWriter::new(stdout.lock());
+    let mut buf = Vec::new();
+    let mut input = formula.to_string();
+    for text in steps {
+        let outcome =
+            chem::steps::Step::parse(text).and_then(|s| chem::steps::take(&complex, &s, &cat));
+        match outcome {
+            Ok(o) => {
+                if json_out {
+                    buf.clear();
+                    json::append_step(&mut buf, &input, &o);
+                    out.write_all(&buf)?;
+                } else {
+                    text::write_step(&mut out, &o, ascii)?;
+                }
+                input = o.after.formula.clone();
+                complex = o.product;
+            }
+            Err(e) => {
+                out.flush()?;
+                eprintln!("error: step '{text}' refused: {e}");
+                if json_out {
+                    json::write_step_error(&mut out, &input, text, &e.to_string())?;
+                }
+                out.flush()?;
+                return Ok(Status::Rejected);
+            }
+        }
+    }
+    out.flush()?;
+    Ok(Status::Ok)
 }
 
 fn ligands(query: &str, json: bool, ascii: bool) -> anyhow::Result<Status> {

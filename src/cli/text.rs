@@ -289,3 +289,32 @@ fn ligand(out: &mut impl Write, l: &LigandDef, ascii: bool) -> io::Result<()> {
     }
     Ok(())
 }
+
+/// A step: what changed, then the product's full report.
+pub fn write_step(
+    out: &mut impl Write,
+    o: &crate::chem::steps::Outcome,
+    ascii: bool,
+) -> io::Result<()> {
+    let (Some(a), Some(b)) = (o.before.metals.first(), o.after.metals.first()) else {
+        return Ok(());
+    };
+    let line = format!(
+        "step: {} · {} → {} e · oxidation state {} → {} · d{} → d{} · CN {} → {}\n",
+        o.step,
+        a.electron_count,
+        b.electron_count,
+        signed(a.oxidation_state),
+        signed(b.oxidation_state),
+        a.d_electrons,
+        b.d_electrons,
+        a.coordination_number,
+        b.coordination_number
+    );
+    if ascii {
+        out.write_all(ascii_text(&line).as_bytes())?;
+    } else {
+        out.write_all(line.as_bytes())?;
+    }
+    write_report(out, &o.after.formula, &o.after, ascii)
+}

@@ -6,4 +6,5 @@ pub mod catalogue;
 pub mod chem;
 pub mod cli;
 pub mod plain;
+pub mod session;
 pub mod tui;

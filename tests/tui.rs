@@ -183,7 +183,11 @@ fn a_new_formula_from_a_paper_replaces_the_complex_and_bad_ones_are_explained() 
     assert_eq!(app.mode, Mode::Normal);
     assert_eq!(app.report.metals[0].symbol, "Ir");
     press(&mut app, "eFe(XyZ)3<enter>");
-    assert_eq!(app.mode, Mode::Formula, "stays open to mend the text");
+    assert_eq!(
+        app.mode,
+        Mode::Line(nonet::tui::LineKind::Formula),
+        "stays open to mend the text"
+    );
     let notice = app.notice.clone().expect("an error notice");
     assert!(notice.error && notice.text.contains("XyZ"), "{notice:?}");
     press(&mut app, "<esc>u");

@@ -8,6 +8,7 @@ use super::complex::Complex;
 use super::count::{count, Report, Saturation};
 use super::edit::{apply, Edit, EditError, Slot};
 use super::ligand::LigandDef;
+use super::steps::{Outcome, Step};
 use super::sterics::{crowding, Crowding};
 
 /// How a substitution at this metal most likely goes.
@@ -54,10 +55,17 @@ impl DonorShift {
     }
 }
 
+/// What is being previewed: a free edit, or an elementary step with its preconditions met.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Change {
+    Edit(Edit),
+    Step(Step),
+}
+
 /// Everything a chemist wants to see before committing an edit.
 #[derive(Debug, Clone)]
 pub struct Preview {
-    pub edit: Edit,
+    pub change: Change,
     pub after: Complex,
     pub before_report: Report,
     pub after_report: Report,
@@ -123,7 +131,7 @@ pub fn preview(
         _ => None,
     };
     Ok(Preview {
-        edit: edit.clone(),
+        change: Change::Edit(edit.clone()),
         crowd_before: crowding(before),
         crowd_after: crowding(&after),
         after,
@@ -135,4 +143,21 @@ pub fn preview(
         donor,
         mechanism,
     })
+}
+
+/// The preview of a step already taken on paper (see `steps::take`).
+pub fn from_step(before: &Complex, o: &Outcome) -> Preview {
+    Preview {
+        change: Change::Step(o.step.clone()),
+        crowd_before: crowding(before),
+        crowd_after: crowding(&o.product),
+        after: o.product.clone(),
+        before_report: o.before.clone(),
+        after_report: o.after.clone(),
+        focus: None,
+        leaving: None,
+        entering: None,
+        donor: None,
+        mechanism: None,
+    }
 }

@@ -46,7 +46,12 @@ pub fn write_error(out: &mut impl Write, input: &str, e: &ParseError) -> io::Res
 
 /// A step's product: `{"schema":1,"input":...,"step":...,"product":...,"changes":{...},` then
 /// the product's count fields.
-pub fn append_step(buf: &mut Vec<u8>, input: &str, o: &crate::chem::steps::Outcome) {
+pub fn append_step(
+    buf: &mut Vec<u8>,
+    input: &str,
+    o: &crate::chem::steps::Outcome,
+    recorded: Option<&(String, u64)>,
+) {
     let (e, os, d, cn) = o.deltas();
     buf.extend_from_slice(b"{\"schema\":1,\"input\":");
     jsonw::string(buf, input);
@@ -54,6 +59,11 @@ pub fn append_step(buf: &mut Vec<u8>, input: &str, o: &crate::chem::steps::Outco
     jsonw::string(buf, &o.step.to_string());
     buf.extend_from_slice(b",\"product\":");
     jsonw::string(buf, &o.after.formula);
+    if let Some((session, id)) = recorded {
+        buf.extend_from_slice(b",\"session\":");
+        jsonw::string(buf, session);
+        let _ = write!(buf, ",\"variant\":{id}");
+    }
     let _ = write!(
         buf,
         ",\"changes\":{{\"electrons\":{},\"oxidation_state\":{},\"d_electrons\":{},\"coordination_number\":{}}}",

@@ -50,6 +50,10 @@ pub struct Cli {
     #[arg(long, global = true)]
     pub ascii: bool,
 
+    /// Keep sessions under DIR instead of $NONET_DATA_DIR or the platform data directory.
+    #[arg(long, global = true, value_name = "DIR")]
+    pub data_dir: Option<PathBuf>,
+
     #[command(subcommand)]
     pub command: Option<Command>,
 }
@@ -62,6 +66,30 @@ pub enum Command {
         /// The complex to start from, e.g. 'IrCl(CO)(PPh3)2'.
         #[arg(value_name = "FORMULA")]
         formula: Option<String>,
+        /// Open (or, with FORMULA, create) this session instead of starting a new one.
+        #[arg(long, value_name = "NAME")]
+        session: Option<String>,
+    },
+    /// List the planning sessions, most recent first.
+    Sessions {
+        /// One JSON object per session per line.
+        #[arg(long)]
+        json: bool,
+    },
+    /// Write a session out as a Markdown table, JSON or CSV (to standard output).
+    Export {
+        /// The session's name (see `nonet sessions`).
+        #[arg(value_name = "SESSION")]
+        session: String,
+        /// md, json or csv.
+        #[arg(long, default_value = "md", value_name = "FORMAT")]
+        format: String,
+        /// Only the path from the start to this variant (an id or a bookmark name).
+        #[arg(long, value_name = "VARIANT")]
+        path: Option<String>,
+        /// Write to FILE instead of standard output.
+        #[arg(long, short, value_name = "FILE")]
+        output: Option<PathBuf>,
     },
     /// Count electrons under both models, with oxidation state, d count, CBC class, saturation
     /// and spin.
@@ -88,6 +116,9 @@ pub enum Command {
         /// "ring-slip Cp 3", "oxidation" (one quoted argument each).
         #[arg(value_name = "STEP", required = true)]
         steps: Vec<String>,
+        /// Record every step, as it is taken, in this session (created if needed).
+        #[arg(long, value_name = "NAME")]
+        session: Option<String>,
     },
     /// List the ligand catalogue, or search it when QUERY is given.
     Ligands {
@@ -131,8 +162,23 @@ where
     };
     let ascii = cli.ascii || !utf8_locale();
     match cli.command {
-        None => plan(None, ascii),
-        Some(Command::Plan { formula }) => plan(formula, ascii),
+        None => plan(None, None, ascii, cli.data_dir.as_deref()),
+        Some(Command::Plan { formula, session }) => {
+            plan(formula, session, ascii, cli.data_dir.as_deref())
+        }
+        Some(Command::Sessions { json }) => sessions(json, cli.data_dir.as_deref()),
+        Some(Command::Export {
+            session,
+            format,
+            path,
+            output,
+        }) => export(
+            &session,
+            &format,
+            path.as_deref(),
+            output,
+            cli.data_dir.as_deref(),
+        ),
         Some(Command::Count {
             json,
             batch,
@@ -147,7 +193,15 @@ where
             json,
             formula,
             steps,
-        }) => step(&formula, &steps, json, ascii),
+            session,
+        }) => step(
+            &formula,
+            &steps,
+            json,
+            ascii,
+            session.as_deref(),
+            cli.data_dir.as_deref(),
+        ),
         Some(Command::Ligands { query, json, paths }) => {
             if paths {
                 return print_paths();
@@ -157,25 +211,187 @@ where
     }
 }
 
-/// Open the planner; a formula that does not parse is reported before the screen changes.
-fn plan(formula: Option<String>, ascii: bool) -> anyhow::Result<Status> {
+/// Open the planner. With no formula and no session it resumes the latest session (or starts
+/// one on the demo complex); a formula starts a new session; `--session` opens a named one.
+fn plan(
+    formula: Option<String>,
+    session: Option<String>,
+    ascii: bool,
+    data_dir: Option<&std::path::Path>,
+) -> anyhow::Result<Status> {
+    use crate::session::Session;
     let cat = load_catalogue();
-    let (text, title) = match &formula {
-        Some(f) => (f.as_str(), f.clone()),
-        None => (crate::tui::DEMO_FORMULA, crate::tui::DEMO_TITLE.to_string()),
+    let dir = crate::session::session_dir(data_dir);
+    // a formula that does not parse is reported before the screen changes
+    let typed = match &formula {
+        Some(f) => match chem::parse(f, &cat) {
+            Ok(c) => Some((c, f.clone())),
+            Err(e) => {
+                eprintln!("error: {}", e.render());
+                return Ok(Status::Rejected);
+            }
+        },
+        None => None,
     };
-    let complex = match chem::parse(text, &cat) {
-        Ok(c) => c,
-        Err(e) => {
-            eprintln!("error: {}", e.render());
-            return Ok(Status::Rejected);
+    let name = match (&session, &typed, &dir) {
+        (Some(n), _, _) => Some(n.clone()),
+        (None, None, Some(d)) => crate::session::list(d).first().map(|s| s.name.clone()),
+        _ => None,
+    }
+    .unwrap_or_else(crate::session::new_name);
+    let mut log = match &dir {
+        Some(d) => match (&session, &typed) {
+            (Some(n), None) => match Session::open_existing(d, n) {
+                Ok(s) => Some(s),
+                Err(e) => {
+                    eprintln!("error: {e}");
+                    return Ok(Status::Rejected);
+                }
+            },
+            _ => match Session::open(d, &name) {
+                Ok(s) => Some(s),
+                Err(e) => {
+                    eprintln!("warning: {e}; this session will not be recorded");
+                    None
+                }
+            },
+        },
+        None => {
+            eprintln!("warning: no data directory (set NONET_DATA_DIR); this session will not be recorded");
+            None
         }
     };
-    let code = crate::tui::run(std::sync::Arc::new(cat), complex, title, ascii)?;
+    for p in log.iter().flat_map(|s| &s.problems) {
+        eprintln!("warning: {}: line {}: {}", name, p.line, p.message);
+    }
+    // the complex to show: what was typed, else where the session left off, else the demo
+    let resumed = log.as_ref().and_then(|s| s.last()).and_then(|v| {
+        chem::parse(&v.formula, &cat)
+            .ok()
+            .map(|c| (c, v.id, v.formula.clone()))
+    });
+    let (complex, title, current) = match (typed, resumed) {
+        (Some((c, text)), _) => (c, text, None),
+        (None, Some((c, id, f))) => (c, format!("session {name}: {f}"), Some(id)),
+        (None, None) => {
+            let c = chem::parse(crate::tui::DEMO_FORMULA, &cat)
+                .map_err(|e| anyhow::anyhow!("the demo formula: {}", e.render()))?;
+            (c, crate::tui::DEMO_TITLE.to_string(), None)
+        }
+    };
+    let mut current = current;
+    if current.is_none() {
+        if let Some(s) = log.as_mut() {
+            let parent = s.last().map(|v| v.id);
+            let r = chem::count(&complex);
+            match s.commit(parent, &format!("start: {title}"), &complex, &r) {
+                Ok(id) => current = Some(id),
+                Err(e) => eprintln!("warning: {e}"),
+            }
+        }
+    }
+    let code = crate::tui::run(
+        std::sync::Arc::new(cat),
+        complex,
+        title,
+        ascii,
+        log,
+        current,
+    )?;
     Ok(match code {
         0 => Status::Ok,
         n => Status::Signal(n),
     })
+}
+
+fn sessions(json_out: bool, data_dir: Option<&std::path::Path>) -> anyhow::Result<Status> {
+    let Some(dir) = crate::session::session_dir(data_dir) else {
+        eprintln!("error: no data directory: set NONET_DATA_DIR or use --data-dir");
+        return Ok(Status::Failure);
+    };
+    let list = crate::session::list(&dir);
+    let stdout = io::stdout();
+    let mut out = BufWriter::new(stdout.lock());
+    if list.is_empty() && !json_out {
+        writeln!(out, "no sessions yet in {}", dir.display())?;
+    }
+    for s in &list {
+        if json_out {
+            serde_json::to_writer(&mut out, s)?;
+            writeln!(out)?;
+        } else {
+            writeln!(
+                out,
+                "{:<28} {:>5} variants  {:>3} bookmarks  {}  {}{}",
+                s.name,
+                s.variants,
+                s.bookmarks,
+                s.modified,
+                s.latest_formula.as_deref().unwrap_or("-"),
+                if s.problems > 0 {
+                    "  (damaged lines skipped)"
+                } else {
+                    ""
+                }
+            )?;
+        }
+    }
+    out.flush()?;
+    Ok(Status::Ok)
+}
+
+fn export(
+    name: &str,
+    format: &str,
+    path: Option<&str>,
+    output: Option<PathBuf>,
+    data_dir: Option<&std::path::Path>,
+) -> anyhow::Result<Status> {
+    use crate::session::export::{self, Scope};
+    let Some(dir) = crate::session::session_dir(data_dir) else {
+        eprintln!("error: no data directory: set NONET_DATA_DIR or use --data-dir");
+        return Ok(Status::Failure);
+    };
+    let file = dir.join(format!("{name}.jsonl"));
+    if !file.exists() {
+        eprintln!(
+            "error: no session '{name}' in {}; `nonet sessions` lists them",
+            dir.display()
+        );
+        return Ok(Status::Rejected);
+    }
+    let s = crate::session::Session::load(&file)?;
+    for p in &s.problems {
+        eprintln!("warning: {name}: line {}: {}", p.line, p.message);
+    }
+    let scope = match path {
+        None => Scope::Tree,
+        Some(v) => match s.find(v) {
+            Some(variant) => Scope::Path(variant.id),
+            None => {
+                eprintln!("error: session '{name}' has no variant or bookmark '{v}'");
+                return Ok(Status::Rejected);
+            }
+        },
+    };
+    let text = match format {
+        "md" | "markdown" => export::markdown(&s, &scope),
+        "json" => export::json(&s, &scope),
+        "csv" => export::csv(&s, &scope),
+        other => {
+            eprintln!("error: unknown export format '{other}': use md, json or csv");
+            return Ok(Status::Rejected);
+        }
+    };
+    match output {
+        Some(p) => std::fs::write(&p, text).with_context(|| format!("writing {}", p.display()))?,
+        None => {
+            let mut out = io::stdout().lock();
+            out.write_all(text.as_bytes())?;
+            out.flush()?;
+        }
+    }
+    Ok(Status::Ok)
 }
 
 fn load_catalogue() -> Catalogue {
@@ -318,14 +534,53 @@ impl Counter<'_> {
     }
 }
 
-/// Apply steps one after another; a refused step stops the run with exit status 2.
-fn step(formula: &str, steps: &[String], json_out: bool, ascii: bool) -> anyhow::Result<Status> {
+/// Apply steps one after another; a refused step stops the run with exit status 2. With a
+/// session, each step is written to its log (and synced) before its result is printed.
+fn step(
+    formula: &str,
+    steps: &[String],
+    json_out: bool,
+    ascii: bool,
+    session: Option<&str>,
+    data_dir: Option<&std::path::Path>,
+) -> anyhow::Result<Status> {
     let cat = load_catalogue();
     let mut complex = match chem::parse(formula, &cat) {
         Ok(c) => c,
         Err(e) => {
             eprintln!("error: {}", e.render());
             return Ok(Status::Rejected);
+        }
+    };
+    let mut log = match session {
+        None => None,
+        Some(name) => {
+            let Some(dir) = crate::session::session_dir(data_dir) else {
+                eprintln!("error: no data directory: set NONET_DATA_DIR or use --data-dir");
+                return Ok(Status::Failure);
+            };
+            let mut s = match crate::session::Session::open(&dir, name) {
+                Ok(s) => s,
+                Err(e) => {
+                    eprintln!("error: {e}");
+                    return Ok(Status::Failure);
+                }
+            };
+            // continue from the last variant when it is this complex, else record the start
+            let canonical = complex.formula(false);
+            let parent = match s.last() {
+                Some(v) if v.formula == canonical => v.id,
+                last => {
+                    let parent = last.map(|v| v.id);
+                    s.commit(
+                        parent,
+                        &format!("start: {formula}"),
+                        &complex,
+                        &chem::count(&complex),
+                    )?
+                }
+            };
+            Some((s, parent))
         }
     };
     let stdout = io::stdout();
@@ -337,13 +592,25 @@ fn step(formula: &str, steps: &[String], json_out: bool, ascii: bool) -> anyhow:
             chem::steps::Step::parse(text).and_then(|s| chem::steps::take(&complex, &s, &cat));
         match outcome {
             Ok(o) => {
+                let mut variant = None;
+                if let Some((s, parent)) = log.as_mut() {
+                    let id = s.commit(Some(*parent), &o.step.to_string(), &o.product, &o.after)?;
+                    *parent = id;
+                    variant = Some((s.name.clone(), id));
+                }
                 if json_out {
                     buf.clear();
-                    json::append_step(&mut buf, &input, &o);
+                    json::append_step(&mut buf, &input, &o, variant.as_ref());
                     out.write_all(&buf)?;
                 } else {
                     text::write_step(&mut out, &o, ascii)?;
+                    if let Some((name, id)) = &variant {
+                        writeln!(out, "  recorded as variant {id} of session {name}\n")?;
+                    }
                 }
+                // a recorded step is reported only once it is on disk; flush so a reader
+                // sees it at once
+                out.flush()?;
                 input = o.after.formula.clone();
                 complex = o.product;
             }

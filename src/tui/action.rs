@@ -40,4 +40,19 @@ pub enum Action {
     ClearInput,
     /// Leave the search or formula line.
     LeaveInput,
+    /// Elementary steps on the selected ligand (previewed first).
+    StepOxidativeAddition,
+    StepReductiveElimination,
+    StepInsertion,
+    StepBetaElimination,
+    StepAlphaElimination,
+    StepProtonation,
+    StepDeprotonation,
+    /// The session's tree of variants.
+    OpenTree,
+    JumpToVariant,
+    StartBookmark,
+    CompareVariant,
+    /// Write the session out as Markdown.
+    Export,
 }

@@ -10,8 +10,10 @@ use super::keymap::{self, Context};
 use crate::catalogue::{Catalogue, FAMILIES};
 use crate::chem::edit::{Edit, Place, Slot};
 use crate::chem::ligand::{CbcClass, LigandDef};
-use crate::chem::preview::{preview, Preview};
+use crate::chem::preview::{self, Change, Preview};
+use crate::chem::steps::{self, Step};
 use crate::chem::{count, parse, Complex, Report};
+use crate::session::Session;
 
 /// Which pane has the keyboard.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -25,12 +27,35 @@ pub enum Focus {
 pub enum Mode {
     Normal,
     Search,
-    Formula,
+    /// Typing a line: a new formula, a bookmark name or a substrate.
+    Line(LineKind),
     Help,
+    /// The session's tree of variants.
+    Tree,
+    /// Two variants side by side.
+    Compare,
+}
+
+/// What a typed line is for.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum LineKind {
+    Formula,
+    Bookmark,
+    Substrate,
+}
+
+impl LineKind {
+    pub fn prompt(self) -> &'static str {
+        match self {
+            LineKind::Formula => "formula",
+            LineKind::Bookmark => "bookmark name",
+            LineKind::Substrate => "substrate to add (H2, CH3I, PhBr, A-B)",
+        }
+    }
 }
 
 /// The edit the preview pane shows; Enter commits it.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+#[derive(Debug, Clone, PartialEq, Eq)]
 pub enum Pending {
     /// The selected ligand for the selected catalogue entry.
     Swap,
@@ -42,6 +67,8 @@ pub enum Pending {
     Mode(usize),
     /// One-electron oxidation (+1) or reduction (-1).
     Charge(i32),
+    /// An elementary step with its preconditions.
+    Step(Step),
 }
 
 /// A message under the panes: what just happened or what went wrong.
@@ -49,6 +76,13 @@ pub enum Pending {
 pub struct Notice {
     pub text: String,
     pub error: bool,
+}
+
+/// Steps that join the selected ligand with a partner.
+#[derive(Debug, Clone, Copy)]
+enum PairStep {
+    Elimination,
+    Insertion,
 }
 
 /// CBC classes offered by the class filter, most common first.
@@ -60,8 +94,16 @@ pub struct App {
     pub report: Report,
     /// A title for the working complex (the demo scenario, or what was typed).
     pub title: String,
-    undo: Vec<Complex>,
-    redo: Vec<Complex>,
+    undo: Vec<(Complex, Option<u64>)>,
+    redo: Vec<(Complex, Option<u64>)>,
+    /// The session log every commit goes to, if the planner has one.
+    pub session: Option<Session>,
+    /// The variant of the session the working complex is.
+    pub variant: Option<u64>,
+    /// Selected row of the tree view.
+    pub tree_row: usize,
+    /// The variant compared with the working one.
+    pub compare: Option<u64>,
     pub focus: Focus,
     pub mode: Mode,
     /// Selected row of the working complex (index into `complex.slots()`).
@@ -94,6 +136,10 @@ impl App {
             title,
             undo: Vec::new(),
             redo: Vec::new(),
+            session: None,
+            variant: None,
+            tree_row: 0,
+            compare: None,
             focus: Focus::Complex,
             mode: Mode::Normal,
             row: 0,
@@ -120,8 +166,10 @@ impl App {
     pub fn context(&self) -> Context {
         match self.mode {
             Mode::Search => Context::Search,
-            Mode::Formula => Context::Formula,
+            Mode::Line(_) => Context::Formula,
             Mode::Help => Context::Help,
+            Mode::Tree => Context::Tree,
+            Mode::Compare => Context::Compare,
             Mode::Normal => match self.focus {
                 Focus::Complex => Context::Complex,
                 Focus::Catalogue => Context::Catalogue,
@@ -173,7 +221,12 @@ impl App {
                 self.mode = Mode::Help;
                 self.help_scroll = 0;
             }
-            Action::CloseHelp => self.mode = Mode::Normal,
+            Action::CloseHelp => {
+                self.mode = match self.mode {
+                    Mode::Compare => Mode::Tree,
+                    _ => Mode::Normal,
+                }
+            }
             Action::Up => self.move_by(-1),
             Action::Down => self.move_by(1),
             Action::PageUp => self.move_by(-10),
@@ -195,7 +248,7 @@ impl App {
                     self.query.push(c);
                     self.refilter(true);
                 }
-                Mode::Formula => self.formula_input.push(c),
+                Mode::Line(_) => self.formula_input.push(c),
                 _ => {}
             },
             Action::DeleteChar => match self.mode {
@@ -203,7 +256,7 @@ impl App {
                     self.query.pop();
                     self.refilter(false);
                 }
-                Mode::Formula => {
+                Mode::Line(_) => {
                     self.formula_input.pop();
                 }
                 _ => {}
@@ -213,15 +266,37 @@ impl App {
                     self.query.clear();
                     self.refilter(false);
                 }
-                Mode::Formula => self.formula_input.clear(),
+                Mode::Line(_) => self.formula_input.clear(),
                 _ => {}
             },
-            Action::LeaveInput => self.mode = Mode::Normal,
-            Action::StartFormula => {
-                self.mode = Mode::Formula;
-                self.formula_input.clear();
+            Action::LeaveInput => {
+                self.mode = match self.mode {
+                    Mode::Line(LineKind::Bookmark) => Mode::Tree,
+                    _ => Mode::Normal,
+                }
             }
-            Action::SubmitFormula => self.submit_formula(),
+            Action::StartFormula => self.start_line(LineKind::Formula),
+            Action::SubmitFormula => match self.mode {
+                Mode::Line(LineKind::Bookmark) => self.submit_bookmark(),
+                Mode::Line(LineKind::Substrate) => self.submit_substrate(),
+                _ => self.submit_formula(),
+            },
+            Action::StepOxidativeAddition => self.start_line(LineKind::Substrate),
+            Action::StepReductiveElimination => self.pend_pair_step(PairStep::Elimination),
+            Action::StepInsertion => self.pend_pair_step(PairStep::Insertion),
+            Action::StepBetaElimination => self.pend_on_selected(Step::BetaHydrideElimination),
+            Action::StepAlphaElimination => self.pend_on_selected(Step::AlphaElimination),
+            Action::StepProtonation => self.set_pending(Pending::Step(Step::Protonation)),
+            Action::StepDeprotonation => self.pend_on_selected(Step::Deprotonation),
+            Action::OpenTree => self.open_tree(),
+            Action::JumpToVariant => self.jump_to_variant(),
+            Action::StartBookmark => {
+                if self.session.is_some() {
+                    self.start_line(LineKind::Bookmark);
+                }
+            }
+            Action::CompareVariant => self.open_compare(),
+            Action::Export => self.export(),
             Action::PendAdd => self.set_pending(Pending::Add),
             Action::PendRemove => self.set_pending(Pending::Remove),
             Action::PendMode => self.pend_next_mode(),
@@ -250,6 +325,12 @@ impl App {
     fn move_by(&mut self, delta: i32) {
         if self.mode == Mode::Help {
             self.help_scroll = (self.help_scroll as i32 + delta).max(0) as u16;
+            return;
+        }
+        if self.mode == Mode::Tree {
+            let n = self.session.as_ref().map_or(0, |s| s.variants.len());
+            self.tree_row =
+                (self.tree_row as i64 + delta as i64).clamp(0, n.max(1) as i64 - 1) as usize;
             return;
         }
         let on_catalogue = self.mode == Mode::Search || self.focus == Focus::Catalogue;
@@ -287,8 +368,8 @@ impl App {
             self.notice(&format!("{} has only one binding mode", b.ligand.key), true);
             return;
         }
-        let current = match self.pending {
-            Pending::Mode(m) => m,
+        let current = match &self.pending {
+            Pending::Mode(m) => *m,
             _ => b.mode,
         };
         let next = (current + 1) % n;
@@ -300,7 +381,7 @@ impl App {
     pub fn pending_edit(&self) -> Result<Edit, String> {
         let slot = self.selected_slot();
         let ligand = self.selected_ligand().cloned();
-        match self.pending {
+        match &self.pending {
             Pending::Swap => match (slot, ligand) {
                 (Some(slot), Some(ligand)) => Ok(Edit::Swap {
                     mode: 0,
@@ -322,18 +403,23 @@ impl App {
                 .map(|slot| Edit::Remove { slot })
                 .ok_or_else(|| "no ligand selected".into()),
             Pending::Mode(mode) => slot
-                .map(|slot| Edit::ChangeMode { slot, mode })
+                .map(|slot| Edit::ChangeMode { slot, mode: *mode })
                 .ok_or_else(|| "no ligand selected".into()),
-            Pending::Charge(d) => Ok(Edit::Charge(d)),
+            Pending::Charge(d) => Ok(Edit::Charge(*d)),
+            Pending::Step(_) => Err("a step, not an edit".into()),
         }
     }
 
-    /// Recompute the preview for the current selection and pending edit.
+    /// Recompute the preview for the current selection and pending edit or step.
     pub fn refresh_preview(&mut self) {
-        self.preview = Some(
-            self.pending_edit()
-                .and_then(|e| preview(&self.complex, &self.report, &e).map_err(|e| e.to_string())),
-        );
+        self.preview = Some(match &self.pending {
+            Pending::Step(step) => steps::take(&self.complex, step, self.cat.as_ref())
+                .map(|o| preview::from_step(&self.complex, &o))
+                .map_err(|e| e.to_string()),
+            _ => self.pending_edit().and_then(|e| {
+                preview::preview(&self.complex, &self.report, &e).map_err(|e| e.to_string())
+            }),
+        });
     }
 
     fn commit(&mut self) {
@@ -346,10 +432,11 @@ impl App {
             }
             None => return,
         };
-        let label = describe(&p.edit, &self.complex);
-        self.undo.push(self.complex.clone());
-        self.redo.clear();
-        self.set_complex(p.after.clone());
+        let label = match &p.change {
+            Change::Edit(e) => describe(e, &self.complex),
+            Change::Step(s) => s.to_string(),
+        };
+        self.advance(p.after.clone(), &label);
         if let Some(slot) = p.focus {
             if let Some(i) = self.slots().iter().position(|s| *s == slot) {
                 self.row = i;
@@ -358,7 +445,28 @@ impl App {
         self.mode = Mode::Normal;
         self.pending = Pending::Swap;
         self.refresh_preview();
-        self.notice(&format!("done: {label}"), false);
+    }
+
+    /// Make `next` the working complex as a committed change: undo can step back, and the
+    /// session log gets a new variant whose parent is the current one.
+    fn advance(&mut self, next: Complex, label: &str) {
+        self.undo.push((self.complex.clone(), self.variant));
+        self.redo.clear();
+        self.set_complex(next);
+        let logged = match self.session.as_mut() {
+            Some(s) => match s.commit(self.variant, label, &self.complex, &self.report) {
+                Ok(id) => {
+                    self.variant = Some(id);
+                    format!(" (variant {id})")
+                }
+                Err(e) => {
+                    self.notice(&format!("done, but not recorded: {e}"), true);
+                    return;
+                }
+            },
+            None => String::new(),
+        };
+        self.notice(&format!("done: {label}{logged}"), false);
     }
 
     fn set_complex(&mut self, c: Complex) {
@@ -372,13 +480,16 @@ impl App {
 
     fn undo(&mut self) {
         match self.undo.pop() {
-            Some(prev) => {
-                let now = std::mem::replace(&mut self.complex, prev.clone());
-                self.redo.push(now);
+            Some((prev, variant)) => {
+                self.redo.push((self.complex.clone(), self.variant));
                 self.set_complex(prev);
+                self.variant = variant;
                 self.pending = Pending::Swap;
                 self.refresh_preview();
-                self.notice("undone", false);
+                self.notice(
+                    "undone (the session keeps both; a new change branches here)",
+                    false,
+                );
             }
             None => self.notice("nothing to undo", true),
         }
@@ -386,14 +497,165 @@ impl App {
 
     fn redo(&mut self) {
         match self.redo.pop() {
-            Some(next) => {
-                self.undo.push(self.complex.clone());
+            Some((next, variant)) => {
+                self.undo.push((self.complex.clone(), self.variant));
                 self.set_complex(next);
+                self.variant = variant;
                 self.pending = Pending::Swap;
                 self.refresh_preview();
                 self.notice("redone", false);
             }
             None => self.notice("nothing to redo", true),
+        }
+    }
+
+    fn start_line(&mut self, kind: LineKind) {
+        self.mode = Mode::Line(kind);
+        self.formula_input.clear();
+    }
+
+    /// Preview a step on the selected ligand.
+    fn pend_on_selected(&mut self, make: fn(String) -> Step) {
+        match self.selected_slot().and_then(|s| self.complex.group(s)) {
+            Some(b) => {
+                let key = b.ligand.key.clone();
+                self.set_pending(Pending::Step(make(key)));
+            }
+            None => self.notice("select a ligand of the working complex first", true),
+        }
+    }
+
+    /// Reductive elimination or insertion of the selected ligand with a partner chosen the way
+    /// a chemist would: H first, then the other X groups.
+    fn pend_pair_step(&mut self, kind: PairStep) {
+        let Some(sel) = self.selected_slot().and_then(|s| self.complex.group(s)) else {
+            self.notice("select a ligand of the working complex first", true);
+            return;
+        };
+        let key = sel.ligand.key.clone();
+        let mut partners: Vec<&str> = self
+            .complex
+            .all_ligands()
+            .map(|(_, b)| b)
+            .filter(|b| {
+                let m = b.mode();
+                m.class.x == 1 && m.class.l == 0 && (b.ligand.key != key || b.count > 1)
+            })
+            .map(|b| b.ligand.key.as_str())
+            .collect();
+        partners.sort_by_key(|k| if *k == "H" { 0 } else { 1 });
+        let Some(partner) = partners.first().map(|p| p.to_string()) else {
+            self.notice(
+                "no X-type partner (H, alkyl, aryl, halide) on the metal",
+                true,
+            );
+            return;
+        };
+        let step = match kind {
+            PairStep::Elimination => Step::ReductiveElimination(key, partner),
+            PairStep::Insertion => Step::MigratoryInsertion {
+                inserting: key,
+                into: partner,
+            },
+        };
+        self.set_pending(Pending::Step(step));
+    }
+
+    fn submit_substrate(&mut self) {
+        let text = self.formula_input.trim().to_string();
+        self.mode = Mode::Normal;
+        if !text.is_empty() {
+            self.set_pending(Pending::Step(Step::OxidativeAddition(text)));
+        }
+    }
+
+    fn open_tree(&mut self) {
+        let Some(s) = &self.session else {
+            self.notice("this planner keeps no session (no data directory)", true);
+            return;
+        };
+        let tree = s.tree();
+        self.tree_row = self
+            .variant
+            .and_then(|v| tree.iter().position(|(_, x)| x.id == v))
+            .unwrap_or(0);
+        self.mode = Mode::Tree;
+    }
+
+    /// The variant under the tree cursor.
+    pub fn tree_selection(&self) -> Option<u64> {
+        let s = self.session.as_ref()?;
+        s.tree().get(self.tree_row).map(|(_, v)| v.id)
+    }
+
+    fn jump_to_variant(&mut self) {
+        let Some(id) = self.tree_selection() else {
+            return;
+        };
+        let Some(formula) = self
+            .session
+            .as_ref()
+            .and_then(|s| s.get(id))
+            .map(|v| v.formula.clone())
+        else {
+            return;
+        };
+        match parse(&formula, self.cat.as_ref()) {
+            Ok(c) => {
+                self.undo.push((self.complex.clone(), self.variant));
+                self.redo.clear();
+                self.set_complex(c);
+                self.variant = Some(id);
+                self.mode = Mode::Normal;
+                self.pending = Pending::Swap;
+                self.refresh_preview();
+                self.notice(
+                    &format!("at variant {id}; a change committed now starts a branch from it"),
+                    false,
+                );
+            }
+            Err(e) => self.notice(&format!("variant {id} cannot be read now: {e}"), true),
+        }
+    }
+
+    fn submit_bookmark(&mut self) {
+        let name = self.formula_input.trim().to_string();
+        self.mode = Mode::Tree;
+        let Some(id) = self.tree_selection() else {
+            return;
+        };
+        if name.is_empty() {
+            return;
+        }
+        if let Some(s) = self.session.as_mut() {
+            match s.bookmark(id, &name) {
+                Ok(()) => self.notice(&format!("variant {id} bookmarked as '{name}'"), false),
+                Err(e) => self.notice(&e.to_string(), true),
+            }
+        }
+    }
+
+    fn open_compare(&mut self) {
+        match self.tree_selection() {
+            Some(id) => {
+                self.compare = Some(id);
+                self.mode = Mode::Compare;
+            }
+            None => self.notice("no variant selected", true),
+        }
+    }
+
+    /// Write the session as a Markdown table next to the session logs.
+    fn export(&mut self) {
+        let Some(s) = &self.session else {
+            self.notice("this planner keeps no session to export", true);
+            return;
+        };
+        let text = crate::session::export::markdown(s, &crate::session::export::Scope::Tree);
+        let path = s.path.with_extension("md");
+        match std::fs::write(&path, text) {
+            Ok(()) => self.notice(&format!("session written to {}", path.display()), false),
+            Err(e) => self.notice(&format!("cannot write {}: {e}", path.display()), true),
         }
     }
 
@@ -409,15 +671,12 @@ impl App {
                 self.notice(&why, true);
             }
             Ok(c) => {
-                self.undo.push(self.complex.clone());
-                self.redo.clear();
-                self.set_complex(c);
                 self.row = 0;
                 self.title = text.clone();
                 self.mode = Mode::Normal;
                 self.pending = Pending::Swap;
+                self.advance(c, &format!("typed {text}"));
                 self.refresh_preview();
-                self.notice(&format!("now working on {text}"), false);
             }
             // stay in the formula line so the text can be mended
             Err(e) => self.notice(&e.to_string(), true),

@@ -20,6 +20,10 @@ pub enum Context {
     Formula,
     /// The help overlay is open.
     Help,
+    /// The session tree is open.
+    Tree,
+    /// Two variants side by side.
+    Compare,
 }
 
 impl Context {
@@ -29,8 +33,10 @@ impl Context {
             Context::Complex => "Working complex",
             Context::Catalogue => "Ligand catalogue",
             Context::Search => "While searching",
-            Context::Formula => "While typing a formula",
+            Context::Formula => "While typing a formula, name or substrate",
             Context::Help => "This help",
+            Context::Tree => "Session tree",
+            Context::Compare => "Comparing variants",
         }
     }
 }
@@ -406,6 +412,79 @@ pub static BINDINGS: &[Binding] = &[
         "",
         Context::Formula,
     ),
+    // the session tree
+    b(
+        &[Key::ch('k'), Key::plain(Up)],
+        "k/↑",
+        Action::Up,
+        "previous variant",
+        "",
+        Context::Tree,
+    ),
+    b(
+        &[Key::ch('j'), Key::plain(Down)],
+        "j/↓",
+        Action::Down,
+        "next variant",
+        "",
+        Context::Tree,
+    ),
+    b(
+        &[Key::plain(Enter)],
+        "Enter",
+        Action::JumpToVariant,
+        "work on this variant",
+        "go",
+        Context::Tree,
+    ),
+    b(
+        &[Key::ch('b')],
+        "b",
+        Action::StartBookmark,
+        "bookmark it",
+        "bookmark",
+        Context::Tree,
+    ),
+    b(
+        &[Key::ch('c')],
+        "c",
+        Action::CompareVariant,
+        "compare it with the working complex",
+        "compare",
+        Context::Tree,
+    ),
+    b(
+        &[Key::ch('w')],
+        "w",
+        Action::Export,
+        "write the session as Markdown",
+        "export",
+        Context::Tree,
+    ),
+    b(
+        &[Key::plain(Esc), Key::ch('t'), Key::ch('q')],
+        "Esc",
+        Action::CloseHelp,
+        "close",
+        "close",
+        Context::Tree,
+    ),
+    b(
+        &[Key::plain(Esc), Key::ch('c'), Key::ch('q')],
+        "Esc",
+        Action::CloseHelp,
+        "back to the tree",
+        "back",
+        Context::Compare,
+    ),
+    b(
+        &[Key::ctrl('c')],
+        "^C",
+        Action::Quit,
+        "quit",
+        "",
+        Context::Tree,
+    ),
     // help
     b(
         &[Key::ch('?'), Key::plain(Esc), Key::ch('q')],
@@ -444,7 +523,10 @@ pub static BINDINGS: &[Binding] = &[
 /// The action for `ev` in `context`: bindings of the context first, then global ones (global
 /// bindings do not apply while typing or in help).
 pub fn lookup(ev: &KeyEvent, context: Context) -> Option<Action> {
-    let typing = matches!(context, Context::Search | Context::Formula | Context::Help);
+    let typing = matches!(
+        context,
+        Context::Search | Context::Formula | Context::Help | Context::Tree | Context::Compare
+    );
     BINDINGS
         .iter()
         .filter(|b| b.context == context || (!typing && b.context == Context::Global))
@@ -454,7 +536,10 @@ pub fn lookup(ev: &KeyEvent, context: Context) -> Option<Action> {
 
 /// The bindings shown in the footer for `context`.
 pub fn footer(context: Context) -> impl Iterator<Item = &'static Binding> {
-    let typing = matches!(context, Context::Search | Context::Formula | Context::Help);
+    let typing = matches!(
+        context,
+        Context::Search | Context::Formula | Context::Help | Context::Tree | Context::Compare
+    );
     BINDINGS.iter().filter(move |b| {
         !b.short.is_empty() && (b.context == context || (!typing && b.context == Context::Global))
     })

@@ -9,6 +9,7 @@ mod keymap;
 mod pane_catalogue;
 mod pane_complex;
 mod pane_preview;
+mod pane_session;
 mod theme;
 mod ui;
 
@@ -22,7 +23,7 @@ use ratatui::crossterm::{cursor, execute, terminal};
 use ratatui::Terminal;
 
 pub use action::Action;
-pub use app::{App, Focus, Mode, Pending};
+pub use app::{App, Focus, LineKind, Mode, Pending};
 pub use keymap::{Context, BINDINGS};
 pub use theme::Theme;
 
@@ -53,9 +54,13 @@ pub fn run(
     complex: Complex,
     title: String,
     ascii: bool,
+    session: Option<crate::session::Session>,
+    variant: Option<u64>,
 ) -> anyhow::Result<u8> {
     let theme = Theme::from_env();
     let mut app = App::new(cat, complex, title, ascii);
+    app.session = session;
+    app.variant = variant;
     watchdogs().context("installing signal handlers")?;
     let mut term = ratatui::try_init()
         .context("nonet's planner needs a terminal; for scripts use `nonet count` (see --help)")?;

@@ -17,12 +17,13 @@ use crate::chem::sterics::{CROWDED, OVERFULL};
 use crate::chem::Frac;
 
 pub fn title(app: &App) -> &'static str {
-    match app.pending {
+    match &app.pending {
+        Pending::Step(_) => "If this step happens",
         Pending::Swap => "If you swap",
         Pending::Add => "If you add",
         Pending::Remove => "If you remove",
         Pending::Mode(_) => "If the mode changes",
-        Pending::Charge(d) if d > 0 => "If oxidized by 1 e",
+        Pending::Charge(d) if *d > 0 => "If oxidized by 1 e",
         Pending::Charge(_) => "If reduced by 1 e",
     }
 }
@@ -83,7 +84,10 @@ fn signed(f: Frac) -> String {
 
 fn lines<'a>(app: &App, p: &Preview, t: &Theme) -> Vec<Line<'a>> {
     let mut out = Vec::new();
-    let what = super::app::propose(&p.edit, &app.complex);
+    let what = match &p.change {
+        crate::chem::preview::Change::Edit(e) => super::app::propose(e, &app.complex),
+        crate::chem::preview::Change::Step(s) => s.to_string(),
+    };
     let (Some(a), Some(b)) = (
         p.before_report.metals.first(),
         p.after_report.metals.first(),

@@ -114,15 +114,21 @@ pub fn render(f: &mut Frame, app: &App, t: &Theme) {
     }
     render_notice(f, app, notice, t);
     render_footer(f, app, footer, t);
-    if app.mode == Mode::Help {
-        help(f, app, area, t);
+    match app.mode {
+        Mode::Help => help(f, app, area, t),
+        Mode::Tree => super::pane_session::render_tree(f, app, area, t),
+        Mode::Compare => super::pane_session::render_compare(f, app, area, t),
+        Mode::Line(super::app::LineKind::Bookmark) => {
+            super::pane_session::render_tree(f, app, area, t)
+        }
+        _ => {}
     }
 }
 
 fn render_notice(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
-    let line = if app.mode == Mode::Formula {
+    let line = if let Mode::Line(kind) = app.mode {
         Line::from(vec![
-            Span::styled("formula: ", t.key()),
+            Span::styled(format!("{}: ", kind.prompt()), t.key()),
             Span::raw(plain(app, &app.formula_input)),
             Span::styled("_", t.key()),
             Span::styled(
@@ -162,6 +168,8 @@ pub fn help_lines(app: &App, t: &Theme) -> Vec<Line<'static>> {
         Context::Catalogue,
         Context::Search,
         Context::Formula,
+        Context::Tree,
+        Context::Compare,
         Context::Help,
     ] {
         lines.push(Line::styled(ctx.title().to_string(), t.heading()));

@@ -1,0 +1,148 @@
+//! The session tree (variants with their parents, bookmarks and counts) and the side-by-side
+//! comparison of two variants.
+
+use ratatui::layout::{Constraint, Layout, Rect};
+use ratatui::text::Line;
+use ratatui::widgets::{Clear, Paragraph, Wrap};
+use ratatui::Frame;
+
+use super::app::App;
+use super::theme::Theme;
+use super::ui::{block, marker, plain, plain_lines};
+use crate::chem::{count, parse, Report};
+
+fn popup(area: Rect) -> Rect {
+    let w = area.width.saturating_sub(4).max(1);
+    let h = area.height.saturating_sub(3).max(1);
+    Rect {
+        x: area.x + area.width.saturating_sub(w) / 2,
+        y: area.y + 1,
+        width: w,
+        height: h,
+    }
+}
+
+pub fn render_tree(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
+    let area = popup(area);
+    f.render_widget(Clear, area);
+    let Some(s) = &app.session else {
+        return;
+    };
+    let title = format!("Session {} ({} variants)", s.name, s.variants.len());
+    let b = block(app, &title, true, t);
+    let inner = b.inner(area);
+    f.render_widget(b, area);
+    let tree = s.tree();
+    let room = inner.height as usize;
+    let first = app.tree_row.saturating_sub(room.saturating_sub(1));
+    let mut lines = Vec::new();
+    for (i, (depth, v)) in tree.iter().enumerate().skip(first).take(room) {
+        let selected = i == app.tree_row;
+        let working = app.variant == Some(v.id);
+        let e = &v.counts.electron_count;
+        let mut text = format!(
+            "{} {:>3} {}{} -> {}  {} e",
+            marker(app, selected),
+            v.id,
+            "  ".repeat(*depth),
+            v.action,
+            v.formula,
+            e
+        );
+        if let Some(name) = s.bookmark_of(v.id) {
+            text.push_str(&format!("  [{name}]"));
+        }
+        if working {
+            text.push_str("  <- working");
+        }
+        let style = if selected {
+            t.selected(true)
+        } else if working {
+            t.title()
+        } else {
+            t.text()
+        };
+        lines.push(Line::styled(plain(app, &text), style));
+    }
+    f.render_widget(Paragraph::new(lines), inner);
+}
+
+fn summary<'a>(label: String, formula: &str, r: Option<&Report>, t: &Theme) -> Vec<Line<'a>> {
+    let mut out = vec![
+        Line::styled(label, t.heading()),
+        Line::styled(formula.to_string(), t.title()),
+    ];
+    let Some(r) = r else {
+        out.push(Line::styled(
+            "(cannot be read with this catalogue)",
+            t.warn(),
+        ));
+        return out;
+    };
+    if let Some(m) = r.metals.first() {
+        out.push(Line::raw(format!(
+            "{} e neutral = {} e ionic",
+            m.electron_count, m.ionic_electron_count
+        )));
+        out.push(Line::raw(format!(
+            "ox. state {} · d{} · CN {}",
+            m.oxidation_state, m.d_electrons, m.coordination_number
+        )));
+        out.push(Line::raw(format!(
+            "{} · {}",
+            m.saturation.word(),
+            m.equivalent_neutral_class
+        )));
+        for c in &m.contributions {
+            out.push(Line::raw(format!(
+                "  {} x{} {} {}: {} / {} e",
+                c.ligand.key,
+                c.count,
+                c.mode().label,
+                c.mode().class_text(),
+                c.neutral,
+                c.ionic
+            )));
+        }
+    }
+    out.push(Line::raw(match r.unpaired_electrons.first() {
+        Some(0) => "diamagnetic".to_string(),
+        Some(n) => format!("{n} unpaired"),
+        None => "spin not estimated".to_string(),
+    }));
+    out
+}
+
+pub fn render_compare(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
+    let area = popup(area);
+    f.render_widget(Clear, area);
+    let (Some(s), Some(id)) = (&app.session, app.compare) else {
+        return;
+    };
+    let b = block(app, "Two variants side by side (Esc: back)", true, t);
+    let inner = b.inner(area);
+    f.render_widget(b, area);
+    let [left, right] =
+        Layout::horizontal([Constraint::Percentage(50), Constraint::Percentage(50)]).areas(inner);
+    let other = s.get(id);
+    let other_report = other
+        .and_then(|v| parse(&v.formula, app.cat.as_ref()).ok())
+        .map(|c| count(&c));
+    let label = other.map_or(format!("variant {id}"), |v| {
+        format!("variant {id}: {}", v.action)
+    });
+    let formula = other.map_or(String::new(), |v| v.formula.clone());
+    let left_lines = summary(label, &formula, other_report.as_ref(), t);
+    let here = app.variant.map_or("working complex".to_string(), |v| {
+        format!("working complex (variant {v})")
+    });
+    let right_lines = summary(here, &app.complex.formula(app.ascii), Some(&app.report), t);
+    f.render_widget(
+        Paragraph::new(plain_lines(app, left_lines)).wrap(Wrap { trim: false }),
+        left,
+    );
+    f.render_widget(
+        Paragraph::new(plain_lines(app, right_lines)).wrap(Wrap { trim: false }),
+        right,
+    );
+}

@@ -8,6 +8,7 @@ fn nonet(args: &[&str]) -> std::process::Output {
     Command::new(env!("CARGO_BIN_EXE_nonet"))
         .args(args)
         .env("NONET_CONFIG_DIR", &dir)
+        .env("NONET_DATA_DIR", &dir)
         .stdin(Stdio::null())
         .output()
         .expect("run nonet")

@@ -220,7 +220,23 @@ fn plan(
     data_dir: Option<&std::path::Path>,
 ) -> anyhow::Result<Status> {
     use crate::session::Session;
+    use std::io::IsTerminal;
     let cat = load_catalogue();
+    // a formula that does not parse is reported first, then the terminal is checked, so that
+    // no session is created for a planner that cannot open
+    if let Some(f) = &formula {
+        if let Err(e) = chem::parse(f, &cat) {
+            eprintln!("error: {}", e.render());
+            return Ok(Status::Rejected);
+        }
+    }
+    if !io::stdout().is_terminal() || !io::stdin().is_terminal() {
+        eprintln!(
+            "error: nonet's planner needs a terminal; for scripts use `nonet count` or \
+             `nonet step` (see --help)"
+        );
+        return Ok(Status::Failure);
+    }
     let dir = crate::session::session_dir(data_dir);
     // a formula that does not parse is reported before the screen changes
     let typed = match &formula {

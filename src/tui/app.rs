@@ -240,8 +240,11 @@ impl App {
                 }
             }
             Action::StartSearch => {
+                // each search starts afresh, as in a pager or an editor
                 self.mode = Mode::Search;
-                self.set_pending(Pending::Swap);
+                self.query.clear();
+                self.pending = Pending::Swap;
+                self.refilter(false);
             }
             Action::Input(c) => match self.mode {
                 Mode::Search => {

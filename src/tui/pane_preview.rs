@@ -34,14 +34,17 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
     f.render_widget(b, area);
     let lines = match &app.preview {
         None => vec![Line::styled("nothing to preview", t.dim())],
-        Some(Err(why)) => vec![
-            Line::styled(plain(app, why), t.warn()),
-            Line::raw(""),
-            Line::styled(
-                "pick a ligand on the left and one in the catalogue",
-                t.dim(),
-            ),
-        ],
+        Some(Err(why)) => {
+            let mut l = vec![Line::styled(plain(app, why), t.warn())];
+            if app.pending == Pending::Swap {
+                l.push(Line::raw(""));
+                l.push(Line::styled(
+                    "pick a ligand on the left and one in the catalogue",
+                    t.dim(),
+                ));
+            }
+            l
+        }
         Some(Ok(p)) => lines(app, p, t),
     };
     let lines = plain_lines(app, lines);

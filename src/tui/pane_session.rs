@@ -84,9 +84,15 @@ fn summary<'a>(label: String, formula: &str, r: Option<&Report>, t: &Theme) -> V
             "{} e neutral = {} e ionic",
             m.electron_count, m.ionic_electron_count
         )));
+        let os = m.oxidation_state;
+        let os = if os > crate::chem::Frac::ZERO {
+            format!("+{os}")
+        } else {
+            os.to_string()
+        };
         out.push(Line::raw(format!(
-            "ox. state {} · d{} · CN {}",
-            m.oxidation_state, m.d_electrons, m.coordination_number
+            "ox. state {os} · d{} · CN {}",
+            m.d_electrons, m.coordination_number
         )));
         out.push(Line::raw(format!(
             "{} · {}",

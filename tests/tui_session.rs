@@ -1,0 +1,157 @@
+//! The planner with a session: every commit recorded, branches from earlier variants,
+//! bookmarks, comparison, export, and elementary steps previewed before they are committed.
+
+mod common;
+
+use std::sync::Arc;
+
+use nonet::catalogue::Catalogue;
+use nonet::chem::parse;
+use nonet::session::Session;
+use nonet::tui::{App, Mode, Pending};
+use ratatui::crossterm::event::{KeyCode, KeyEvent};
+
+fn press(app: &mut App, keys: &str) {
+    let mut rest = keys;
+    while !rest.is_empty() {
+        let (code, used) = if let Some(r) = rest.strip_prefix("<enter>") {
+            (KeyCode::Enter, rest.len() - r.len())
+        } else if let Some(r) = rest.strip_prefix("<esc>") {
+            (KeyCode::Esc, rest.len() - r.len())
+        } else {
+            let c = rest.chars().next().expect("char");
+            (KeyCode::Char(c), c.len_utf8())
+        };
+        if let Some(a) = app.handle_key(KeyEvent::from(code)) {
+            app.apply(a);
+        }
+        rest = &rest[used..];
+    }
+}
+
+fn planner(formula: &str, tag: &str) -> (App, std::path::PathBuf) {
+    let dir = std::env::temp_dir().join(format!("nonet-tui-{tag}-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    let cat = Arc::new(Catalogue::bundled());
+    let c = parse(formula, cat.as_ref()).expect("formula");
+    let mut s = Session::open(&dir, "t").expect("session");
+    let root = s
+        .commit(None, "start", &c, &nonet::chem::count(&c))
+        .expect("root");
+    let mut app = App::new(cat, c, "test".into(), false);
+    app.session = Some(s);
+    app.variant = Some(root);
+    (app, dir)
+}
+
+fn row_of(app: &App, key: &str) -> usize {
+    app.slots()
+        .iter()
+        .position(|s| app.complex.group(*s).is_some_and(|b| b.ligand.key == key))
+        .unwrap_or_else(|| panic!("no {key} row"))
+}
+
+#[test]
+fn commits_are_recorded_and_going_back_branches() {
+    let (mut app, dir) = planner("IrCl(CO)(PPh3)2", "branch");
+    press(&mut app, "/PMe3<enter>");
+    assert_eq!(app.variant, Some(1));
+    press(&mut app, "u/PCy3<enter>");
+    let s = app.session.as_ref().expect("session");
+    assert_eq!(s.variants.len(), 3);
+    assert_eq!(s.get(1).and_then(|v| v.parent), Some(0));
+    assert_eq!(
+        s.get(2).and_then(|v| v.parent),
+        Some(0),
+        "a branch from the start"
+    );
+    // the log on disk has the same tree
+    let back = Session::load(&dir.join("t.jsonl")).expect("load");
+    assert_eq!(back.variants, s.variants);
+    let _ = std::fs::remove_dir_all(&dir);
+}
+
+#[test]
+fn the_tree_jumps_bookmarks_compares_and_exports() {
+    let (mut app, dir) = planner("IrCl(CO)(PPh3)2", "tree");
+    press(&mut app, "/PMe3<enter>");
+    press(&mut app, "t");
+    assert_eq!(app.mode, Mode::Tree);
+    press(&mut app, "k<enter>");
+    assert_eq!(app.variant, Some(0));
+    assert!(app.complex.formula(false).contains("PPh3)2"));
+    press(&mut app, "tbVaska start<enter>");
+    let s = app.session.as_ref().expect("session");
+    assert_eq!(s.bookmark_of(0), Some("Vaska start"));
+    press(&mut app, "jc");
+    assert_eq!(app.mode, Mode::Compare);
+    assert_eq!(app.compare, Some(1));
+    press(&mut app, "<esc>w");
+    assert!(dir.join("t.md").exists(), "export written next to the log");
+    let _ = std::fs::remove_dir_all(&dir);
+}
+
+#[test]
+fn steps_are_previewed_then_committed_and_refusals_explained() {
+    let (mut app, dir) = planner("IrCl(CO)(PPh3)2", "steps");
+    let before = app.complex.formula(false);
+    press(&mut app, "OH2<enter>");
+    assert!(matches!(app.pending, Pending::Step(_)));
+    let p = app
+        .preview
+        .clone()
+        .expect("preview")
+        .expect("the step is allowed");
+    assert_eq!(p.after_report.metals[0].electron_count.as_int(), Some(18));
+    assert_eq!(
+        app.complex.formula(false),
+        before,
+        "nothing changes before Enter"
+    );
+    press(&mut app, "<enter>");
+    assert_eq!(app.report.metals[0].oxidation_state.as_int(), Some(3));
+    // now 18 e: a second oxidative addition is refused, with the reason in the preview
+    press(&mut app, "OH2<enter>");
+    let why = app.preview.clone().expect("preview").expect_err("refused");
+    assert!(why.contains("open site"), "{why}");
+    press(&mut app, "<enter>");
+    assert_eq!(app.report.metals[0].oxidation_state.as_int(), Some(3));
+    // reductive elimination of the selected H with its partner H
+    app.row = row_of(&app, "H");
+    press(&mut app, "<esc>R<enter>");
+    assert_eq!(app.report.metals[0].oxidation_state.as_int(), Some(1));
+    let s = app.session.as_ref().expect("session");
+    assert!(s
+        .variants
+        .iter()
+        .any(|v| v.action == "oxidative-addition H2"));
+    assert!(s
+        .variants
+        .iter()
+        .any(|v| v.action.starts_with("reductive-elimination H")));
+    let _ = std::fs::remove_dir_all(&dir);
+}
+
+#[test]
+fn insertion_and_elimination_keys_act_on_the_selected_ligand() {
+    let (mut app, dir) = planner("Mn(CO)5Me", "insert");
+    app.row = row_of(&app, "CO");
+    press(&mut app, "i<enter>");
+    assert!(
+        app.complex.formula(false).contains("COMe"),
+        "{}",
+        app.complex.formula(false)
+    );
+    let _ = std::fs::remove_dir_all(&dir);
+
+    let (mut app, dir) = planner("PdEt(Cl)(PPh3)", "beta");
+    app.row = row_of(&app, "Et");
+    press(&mut app, "d<enter>");
+    assert!(app.complex.formula(false).contains("C2H4"));
+    app.row = row_of(&app, "H");
+    press(&mut app, "P<enter>");
+    assert_eq!(app.complex.charge, -1);
+    press(&mut app, "p<enter>");
+    assert_eq!(app.complex.charge, 0);
+    let _ = std::fs::remove_dir_all(&dir);
+}

@@ -10,6 +10,7 @@ out=screenshots
 work=$(mktemp -d)
 trap 'rm -rf "$work"' EXIT
 export NONET_CONFIG_DIR="$work/config"
+export NONET_DATA_DIR="$work/data"
 chrome=$(command -v chromium || command -v chromium-browser)
 
 # scene NAME COLS ROWS KEYS...: start the planner, type the keys, capture the screen
@@ -18,7 +19,7 @@ scene() {
   shift 3
   local sock="nonet-shots-$name"
   tmux -L "$sock" -f /dev/null new-session -d -s shot -x "$cols" -y "$rows" \
-    "LANG=C.UTF-8 NONET_CONFIG_DIR=$NONET_CONFIG_DIR target/release/nonet"
+    "LANG=C.UTF-8 NONET_CONFIG_DIR=$NONET_CONFIG_DIR NONET_DATA_DIR=$work/data-$name target/release/nonet"
   sleep 1
   for k in "$@"; do
     tmux -L "$sock" send-keys -t shot "$k"
@@ -42,3 +43,5 @@ scene swap_preview_120x40 120 40 / P M e 3
 scene ring_slip_120x40 120 40 e 'CpMn(CO)3' Enter j j j m
 scene help_80x24 80 24 '?'
 scene narrow_80x24 80 24 j j / P C y 3
+scene step_preview_120x40 120 40 e 'IrCl(CO)(PPh3)2' Enter O H 2 Enter
+scene session_tree_120x40 120 40 / P M e 3 Enter u / P C y 3 Enter O H 2 Enter Enter t

@@ -1,42 +1,19 @@
 //! Planner speed with a 5,000-entry catalogue: one full frame at 120x40 (target under 1 ms) and
 //! filtering the catalogue for one keystroke (target under 2 ms).
 
-use std::fmt::Write as _;
 use std::hint::black_box;
 use std::sync::Arc;
 
 use criterion::{criterion_group, criterion_main, Criterion};
+
+#[path = "common.rs"]
+mod common;
+use common::big_catalogue;
 use nonet::catalogue::Catalogue;
 use nonet::chem::parse;
 use nonet::tui::{Action, App, Theme};
 use ratatui::backend::TestBackend;
 use ratatui::Terminal;
-
-/// The bundled ligands repeated under new keys until there are `n`, as one extra ligand set.
-fn big_catalogue(n: usize) -> Catalogue {
-    let base = Catalogue::bundled();
-    let mut toml = String::new();
-    let extra = n.saturating_sub(base.len());
-    for i in 0..extra {
-        let l = &base.ligands()[i % base.len()];
-        let m = &l.modes[0];
-        let _ = write!(
-            toml,
-            "[[ligand]]\nkey = \"{key}v{i}\"\nname = \"{name} variant {i}\"\nformula = \"{key}v{i}f\"\n\
-             family = \"{family}\"\n[[ligand.mode]]\nlabel = \"{label}\"\nclass = \"{class}\"\n\n",
-            key = l.key.replace('"', ""),
-            name = l.name.replace('"', ""),
-            family = l.family,
-            label = m.label,
-            class = m.class,
-        );
-    }
-    let bundled: Vec<(String, String)> = nonet::catalogue::BUNDLED
-        .iter()
-        .map(|(n, t)| (n.to_string(), t.to_string()))
-        .collect();
-    Catalogue::from_sets(bundled, vec![("synthetic.toml".into(), toml)])
-}
 
 fn bench(c: &mut Criterion) {
     let cat = Arc::new(big_catalogue(5000));

@@ -11,6 +11,7 @@ pub mod formula;
 pub mod frac;
 pub mod ligand;
 pub mod preview;
+pub mod screen;
 pub mod spin;
 pub mod steps;
 pub mod sterics;

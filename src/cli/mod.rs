@@ -2,6 +2,7 @@
 
 mod json;
 mod jsonw;
+mod screen;
 mod text;
 
 use std::io::{self, BufRead, BufWriter, Write};
@@ -120,6 +121,56 @@ pub enum Command {
         #[arg(long, value_name = "NAME")]
         session: Option<String>,
     },
+    /// Rank every catalogue ligand (or pair of ligands) in place of one or two ligands of
+    /// FORMULA, under constraints.
+    Screen {
+        /// The complex to start from.
+        #[arg(value_name = "FORMULA")]
+        formula: String,
+        /// A ligand of the complex to replace; give two for pairs (the same twice for two
+        /// units of one group).
+        #[arg(long = "site", value_name = "LIGAND", required = true)]
+        sites: Vec<String>,
+        /// Electron count at the metal: N or LO-HI.
+        #[arg(long, value_name = "N|LO-HI")]
+        electrons: Option<String>,
+        /// Only products at their target count (18, or 16 for square-planar d8).
+        #[arg(long)]
+        saturated: bool,
+        /// Highest crowding (sum of cone sphere fractions; 1.15 crowded, 1.35 overfull).
+        #[arg(long, value_name = "F")]
+        max_crowding: Option<f64>,
+        /// Cone angle window for entering ligands, degrees: LO-HI.
+        #[arg(long, value_name = "LO-HI")]
+        cone: Option<String>,
+        /// Tolman electronic parameter window, cm-1: LO-HI.
+        #[arg(long, value_name = "LO-HI")]
+        tep: Option<String>,
+        /// Only products predicted diamagnetic.
+        #[arg(long)]
+        diamagnetic: bool,
+        /// Only ligands of this family (repeatable).
+        #[arg(long = "family", value_name = "FAMILY")]
+        families: Vec<String>,
+        /// Leave out this family (repeatable).
+        #[arg(long = "exclude-family", value_name = "FAMILY")]
+        exclude_families: Vec<String>,
+        /// Leave out ligands with GHS hazard statements.
+        #[arg(long)]
+        no_hazardous: bool,
+        /// electrons (nearest the target), crowding, donor (lowest TEP) or cone.
+        #[arg(long, default_value = "electrons", value_name = "KEY")]
+        rank: String,
+        /// How many candidates to show.
+        #[arg(long, default_value_t = 20, value_name = "N")]
+        top: usize,
+        /// Run part K of N of the screen (for array jobs); outputs merge by concatenation.
+        #[arg(long, value_name = "K/N")]
+        shard: Option<String>,
+        /// One JSON object per candidate per line.
+        #[arg(long)]
+        json: bool,
+    },
     /// List the ligand catalogue, or search it when QUERY is given.
     Ligands {
         /// Words to match against keys, names, formulas and aliases.
@@ -202,6 +253,39 @@ where
             session.as_deref(),
             cli.data_dir.as_deref(),
         ),
+        Some(Command::Screen {
+            formula,
+            sites,
+            electrons,
+            saturated,
+            max_crowding,
+            cone,
+            tep,
+            diamagnetic,
+            families,
+            exclude_families,
+            no_hazardous,
+            rank,
+            top,
+            shard,
+            json,
+        }) => screen::run(screen::ScreenRequest {
+            formula,
+            sites,
+            electrons,
+            saturated,
+            max_crowding,
+            cone,
+            tep,
+            diamagnetic,
+            families,
+            exclude_families,
+            no_hazardous,
+            rank,
+            top,
+            shard,
+            json,
+        }),
         Some(Command::Ligands { query, json, paths }) => {
             if paths {
                 return print_paths();
@@ -410,7 +494,7 @@ fn export(
     Ok(Status::Ok)
 }
 
-fn load_catalogue() -> Catalogue {
+pub(crate) fn load_catalogue() -> Catalogue {
     let cat = Catalogue::with_user_dir(catalogue::user_set_dir().as_deref());
     for w in &cat.warnings {
         eprintln!("warning: {w}");

@@ -9,7 +9,6 @@ use criterion::{criterion_group, criterion_main, Criterion};
 #[path = "common.rs"]
 mod common;
 use common::big_catalogue;
-use nonet::catalogue::Catalogue;
 use nonet::chem::parse;
 use nonet::tui::{Action, App, Theme};
 use ratatui::backend::TestBackend;

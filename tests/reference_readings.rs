@@ -173,3 +173,60 @@ fn notation_variants_chemists_type() {
     let e = parse("Fe(Co)5", cat()).unwrap_err();
     assert_eq!(e.suggestion.as_deref(), Some("CO"));
 }
+
+#[test]
+fn oligomers_and_cubanes_are_bridged_not_bonded() {
+    // [Ni(acac)2]3 and [Co(acac)2]4: bridging acac, high-spin M(II), no M-M bonds (Bullen,
+    // Mason & Pauling, Inorg. Chem. 1965, 4, 456; Cotton & Elder 1966; from memory)
+    assert_eq!(report("[Ni(acac)2]3").metal_metal_bonds, Some(0));
+    assert_eq!(report("[Co(acac)2]4").metal_metal_bonds, Some(0));
+    // [PtMe3I]4: a cubane of μ3-iodides, Pt(IV) 18 e, no Pt-Pt bonds (Greenwood & Earnshaw
+    // 1997, ch. 27)
+    let r = report("[PtMe3I]4");
+    assert_eq!(r.metal_metal_bonds, Some(0));
+    assert!(r.formula.contains("μ3-I"), "{}", r.formula);
+    assert_eq!(r.metals[0].electron_count, Frac::int(18));
+    // Co2(CO)6(alkyne): a 4-e μ-alkyne and one Co-Co bond, 18 e per Co (Crabtree 2014, ch. 5)
+    let r = report("Co2(CO)6(PhC≡CPh)");
+    assert_eq!(r.metal_metal_bonds, Some(1));
+    assert_eq!(r.metals[0].electron_count, Frac::int(18));
+}
+
+#[test]
+fn spin_patterns_beyond_the_octahedron() {
+    let unpaired = |f: &str| report(f).unpaired_electrons.first().copied();
+    // bent metallocene d2: diamagnetic with a π acceptor (Cp2Ti(C2H4), Cohen & Bercaw,
+    // Organometallics 1985; from memory), two unpaired without (Cp2VCl)
+    assert_eq!(unpaired("Cp2Ti(C2H4)"), Some(0));
+    assert_eq!(unpaired("Cp2VCl"), Some(2));
+    // d2 oxo: paired in dxy (ReOCl3(PPh3)2; Miessler, Fischer & Tarr 2014, ch. 11)
+    assert_eq!(unpaired("ReOCl3(PPh3)2"), Some(0));
+    // five-coordinate iron(III) porphyrin chloride: high spin (Scheidt & Reed, Chem. Rev. 1981,
+    // 81, 543)
+    assert_eq!(unpaired("Fe(TPP)Cl"), Some(5));
+    // 18-e carbonyls with N donors are diamagnetic (common practice)
+    assert_eq!(unpaired("Mn(CO)3(bpy)Br"), Some(0));
+    // CpRh(CO): an unsaturated 16-e singlet fragment, not a square-planar d8 complex
+    let r = report("CpRh(CO)");
+    assert_eq!(r.metals[0].saturation, Saturation::Unsaturated);
+    assert_eq!(r.unpaired_electrons.first(), Some(&0));
+    // Cp4Zr: three η5 rings and one η1, 20 e (Elschenbroich 2006, ch. 15; from memory)
+    assert_eq!(report("Cp4Zr").metals[0].electron_count, Frac::int(20));
+}
+
+#[test]
+fn salts_hydrates_and_drawn_bonds() {
+    // unbracketed salts, lattice water, bond marks (IUPAC 2005, IR-9)
+    assert_eq!(report("Na2Fe(CO)4").charge, -2);
+    assert_eq!(report("K2PtCl4").metals[0].electron_count, Frac::int(16));
+    assert_eq!(report("K[PtCl3(C2H4)]·H2O").charge, -1);
+    assert_eq!(
+        report("(CO)5W=C(OMe)Ph").metals[0].electron_count,
+        Frac::int(18)
+    );
+    // two complex ions, or a metal counter-ion, are refused with advice, not miscounted
+    for f in ["[Pt(NH3)4][PtCl4]", "Hg[Co(SCN)4]", "Fe4[Fe(CN)6]3"] {
+        let e = parse(f, cat()).unwrap_err();
+        assert!(e.hint.is_some(), "{f}");
+    }
+}

@@ -113,6 +113,11 @@ fn migratory_insertion_both_kinds() {
         deltas("HRh(CO)(PPh3)2(C2H4)", "migratory-insertion C2H4 H"),
         (-2, 0, 0, -1)
     );
+    // the Heck step: ethylene into M-Ph gives 2-phenylethyl, which β-eliminates styrene
+    assert_eq!(
+        deltas("PdPh(Br)(PPh3)(C2H4)", "migratory-insertion C2H4 Ph"),
+        (-2, 0, 0, -1)
+    );
     // the two groups must both be on the metal
     assert!(refused("Mn(CO)5Me", "migratory-insertion C2H4 Me").contains("no C2H4"));
 }
@@ -127,13 +132,21 @@ fn beta_and_alpha_elimination() {
     assert!(product("PdEt(Cl)(PPh3)", &["beta-hydride-elimination Et"]).contains("C2H4"));
     assert!(refused("PdMe(Cl)(PPh3)", "beta-hydride-elimination Me").contains("β"));
     assert!(refused("Mn(CO)5Et", "beta-hydride-elimination Et").contains("open site"));
+    // a 16-e square-planar alkyl must lose a ligand first (Whitesides; Crabtree 2014, ch. 7)
+    assert!(refused("Pd(PPh3)2Br(nPr)", "beta-hydride-elimination nPr").contains("cis site"));
 }
 
 #[test]
 fn alpha_elimination_needs_d_electrons() {
     // Ta(V) d0 cannot rise by two: α-abstraction, not α-elimination, makes Schrock's
     // neopentylidene (Schrock, J. Am. Chem. Soc. 1974, 96, 6796; from memory)
-    assert!(refused("Ta(CH2tBu)3Cl2", "alpha-elimination CH2tBu").contains("d0"));
+    assert!(refused("Ta(CH2tBu)Cl4", "alpha-elimination CH2tBu").contains("d0"));
+    // with two alkyls a d0 metal abstracts instead: Ta(CH2tBu)5 -> Ta(=CHtBu)(CH2tBu)3 +
+    // CMe4, no change in oxidation state, Δe 0, ΔCN -1 (Crabtree 2014, ch. 7)
+    assert_eq!(
+        deltas("Ta(CH2tBu)5", "alpha-elimination CH2tBu"),
+        (0, 0, 0, -1)
+    );
     // α-H elimination: alkyl (X) to alkylidene (X2) + H (X): Δe +2, ΔOS +2, Δd -2, ΔCN +1
     // (Crabtree 2014, ch. 7)
     assert_eq!(

@@ -214,6 +214,7 @@ pub fn bond_refusal(
     os: Frac,
     d: Frac,
     target: u8,
+    werner: bool,
 ) -> Option<&'static str> {
     if e.block == Block::F {
         return Some("f-block metals are not counted to 18 e");
@@ -233,7 +234,31 @@ pub fn bond_refusal(
             "first-row metals in oxidation states of +3 and above are bridged, not bonded",
         );
     }
+    // Werner-type first-row M(II) with five or more d electrons (Co(acac)2, Ni(acac)2
+    // oligomers) are held by bridging ligands; d1-d4 ones still bond (Cr2(O2CMe)4)
+    if werner && e.is_first_row() && os >= Frac::int(2) && d >= 5 {
+        return Some("first-row M(II) Werner complexes with d5 or more are bridged, not bonded");
+    }
     None
+}
+
+/// No π-acceptor or organometallic ring ligand: a classical (Werner) coordination complex.
+pub fn is_werner(complex: &Complex) -> bool {
+    !complex.all_ligands().any(|(_, b)| {
+        matches!(
+            b.ligand.family.as_str(),
+            "carbonyl"
+                | "isocyanide"
+                | "nitrosyl"
+                | "cyclopentadienyl"
+                | "arene"
+                | "alkene"
+                | "alkyne"
+                | "diene"
+                | "allyl"
+                | "polyene"
+        )
+    })
 }
 
 /// Cone angle from which a ligand is called bulky (PCy3 170 deg, PtBu3 182 deg; Tolman,
@@ -364,7 +389,7 @@ pub fn count(complex: &Complex) -> Report {
             Block::D => s.element.valence as i64,
             Block::F => {
                 let os_up = -((-*os).floor());
-                os_up.max(3)
+                os_up.max(0)
             }
         })
         .collect();
@@ -399,7 +424,15 @@ pub fn count(complex: &Complex) -> Report {
         .map(|(i, ((s, t), d))| {
             // in a cluster only heteroatom-bridged or -ligated d8 centres stay at 16 e;
             // carbon-bridged carbonyl clusters go to 18 with M-M bonds (Co3(CO)9(μ3-CMe))
+            // a ring ligand makes a half-sandwich fragment (CpRh(CO), 16 e), not a
+            // square-planar complex
+            let ring = s
+                .ligands
+                .iter()
+                .chain(&complex.shared)
+                .any(|b| b.mode().hapticity().is_some_and(|h| h >= 5));
             let planar_d8 = s.element.block == Block::D
+                && !ring
                 && d.as_int() == Some(8)
                 && t.sites == Frac::int(4)
                 && (!polynuclear || hetero[i])
@@ -431,19 +464,14 @@ pub fn count(complex: &Complex) -> Report {
             .zip(&targets)
             .map(|(p, t)| Frac::int(*t as i64) - *p)
             .collect();
+        let werner = is_werner(complex);
         let refusal = complex
             .sites
             .iter()
             .zip(&oxidation)
             .zip(&d)
             .zip(&targets)
-            .find_map(|(((s, os), d), t)| bond_refusal(s.element, *os, *d, *t));
-        let werner = !complex.all_ligands().any(|(_, b)| {
-            matches!(
-                b.ligand.family.as_str(),
-                "carbonyl" | "isocyanide" | "nitrosyl" | "cyclopentadienyl" | "arene"
-            )
-        });
+            .find_map(|(((s, os), d), t)| bond_refusal(s.element, *os, *d, *t, werner));
         let mut v = cluster::metal_bonds(&need, &d, cve, refusal.is_some(), werner, three_centre);
         if let Some(why) = refusal {
             v.notes.push(format!("no M-M bonds inferred: {why}"));
@@ -843,10 +871,14 @@ fn centre_guess(complex: &Complex, i: usize, m: &MetalReport) -> SpinGuess {
             rings: 0,
             field: 1.0,
             planar_ligand: false,
+            pi_acceptor: false,
+            multiple_bond: false,
         });
     };
     let mut rings = 0;
     let mut planar_ligand = false;
+    let mut pi_acceptor = false;
+    let mut multiple_bond = false;
     let mut field_sum = 0.0;
     let mut weight = 0.0;
     for b in site.ligands.iter().chain(&complex.shared) {
@@ -855,6 +887,11 @@ fn centre_guess(complex: &Complex, i: usize, m: &MetalReport) -> SpinGuess {
             rings += b.count;
         }
         planar_ligand |= b.ligand.family == "macrocycle" && mode.sites == 4;
+        pi_acceptor |= matches!(
+            b.ligand.family.as_str(),
+            "carbonyl" | "isocyanide" | "nitrosyl" | "alkene" | "alkyne"
+        );
+        multiple_bond |= matches!(b.ligand.family.as_str(), "oxo" | "imido" | "nitrido");
         if let Some(f) = b.ligand.field {
             let w = (b.count as f64) * mode.sites as f64;
             field_sum += f.score() * w;
@@ -878,6 +915,8 @@ fn centre_guess(complex: &Complex, i: usize, m: &MetalReport) -> SpinGuess {
             1.0
         },
         planar_ligand,
+        pi_acceptor,
+        multiple_bond,
     })
 }
 

@@ -35,7 +35,9 @@ pub fn fit_modes(c: &mut Complex) {
     // most formulas have nothing to settle: say so without counting
     let open = c.sites[0].ligands.iter().any(|b| {
         !b.pinned
-            && (FLEXIBLE.contains(&b.ligand.family.as_str()) || b.ligand.family == "alkylidene")
+            && (FLEXIBLE.contains(&b.ligand.family.as_str())
+                || b.ligand.family == "alkylidene"
+                || b.ligand.family == "cyclopentadienyl")
     });
     if !open {
         return;
@@ -73,6 +75,9 @@ fn lower_modes(c: &mut Complex, target: Option<i64>) {
         };
         let goal = target.unwrap_or(m.target as i64);
         let excess = current - goal;
+        // rings hold their hapticity up to 20 e (cobaltocene 19, nickelocene 20); past that a
+        // Cp slips to η1 (Cp4Zr is (η5-Cp)3(η1-Cp)Zr, 20 e)
+        let rings_may_slip = current > 20;
         if excess <= 0 {
             return;
         }
@@ -80,7 +85,9 @@ fn lower_modes(c: &mut Complex, target: Option<i64>) {
         // excess without overshooting
         let mut best: Option<(usize, usize, i64)> = None;
         for (gi, b) in c.sites[0].ligands.iter().enumerate() {
-            if b.pinned || !FLEXIBLE.contains(&b.ligand.family.as_str()) {
+            let flexible = FLEXIBLE.contains(&b.ligand.family.as_str())
+                || (rings_may_slip && b.ligand.family == "cyclopentadienyl");
+            if b.pinned || !flexible {
                 continue;
             }
             let now = b.mode().neutral_electrons();
@@ -161,14 +168,23 @@ fn note(c: &mut Complex, text: String) {
 
 /// Families whose terminal X ligands bridge two metals with a lone pair (μ-Cl: X to one metal,
 /// L to the other).
-const BRIDGING: &[&str] = &["halide", "alkoxide", "thiolate", "amide", "pseudohalide"];
+const BRIDGING: &[&str] = &[
+    "halide",
+    "alkoxide",
+    "thiolate",
+    "amide",
+    "pseudohalide",
+    "alkyne",
+];
 
 /// In a polynuclear complex written without μ marks (`[Rh(COD)Cl]2`, `[Cp*IrCl2]2`), let halide
 /// and alkoxide lone pairs bridge before any M-M bond is inferred, as textbooks draw these
 /// dimers, wherever a metal short of electrons forms no M-M bond or has six or more d
 /// electrons (d6-d8 dimers bridge; d1-d5 ones such as [Re2Cl8]2- bond).
 fn fit_bridges(c: &mut Complex) {
-    use super::count::bond_refusal;
+    use super::count::{bond_refusal, is_werner};
+    let werner = is_werner(c);
+    let n = c.metal_count();
     let open = c.all_ligands().any(|(_, b)| {
         !b.pinned && b.mode().bridges == 1 && BRIDGING.contains(&b.ligand.family.as_str())
     });
@@ -181,8 +197,15 @@ fn fit_bridges(c: &mut Complex) {
         let short: bool = r.metals.iter().zip(&c.sites).any(|(m, s)| {
             let before_bonds = m.electron_count - m.metal_metal_bonds;
             let lacking = Frac::int(m.target as i64) - before_bonds >= Frac::int(1);
-            let bridges_first = m.d_electrons >= Frac::int(6)
-                || bond_refusal(s.element, m.oxidation_state, m.d_electrons, m.target).is_some();
+            let bridges_first = m.d_electrons >= Frac::int(5)
+                || bond_refusal(
+                    s.element,
+                    m.oxidation_state,
+                    m.d_electrons,
+                    m.target,
+                    werner,
+                )
+                .is_some();
             lacking && bridges_first
         });
         if !short {
@@ -202,11 +225,19 @@ fn fit_bridges(c: &mut Complex) {
             })
             .chain(c.shared.iter().enumerate().map(|(gi, b)| (None, gi, b)))
             .filter_map(|(si, gi, b)| {
-                let mu = b.ligand.modes.iter().position(|m| {
-                    m.bridges == 2 && m.class.l == 1 && m.class.x == 1 && m.class.z == 0
-                })?;
                 let m = b.mode();
-                let terminal_x = m.bridges == 1 && m.class.x == 1 && m.class.l == 0;
+                // the widest bridge the metals allow that gives more electrons (μ3-I in a
+                // cubane, μ-Cl in a dimer, a 4-e μ-alkyne over a Co2 edge)
+                let mu = (0..b.ligand.modes.len())
+                    .filter(|&i| {
+                        let x = &b.ligand.modes[i];
+                        x.bridges > 1
+                            && x.bridges as usize <= n
+                            && x.neutral_electrons() > m.neutral_electrons()
+                            && !x.three_centre
+                    })
+                    .max_by_key(|&i| b.ligand.modes[i].bridges)?;
+                let terminal_x = m.bridges == 1;
                 let owner_count = si
                     .and_then(|i| r.metals.get(i))
                     .map_or(Frac::ZERO, |m| m.electron_count);
@@ -247,8 +278,8 @@ fn fit_bridges(c: &mut Complex) {
         note(
             c,
             format!(
-                "{} read as bridging (μ-{}) before any M-M bond, as such dimers are drawn",
-                ligand.key, ligand.key
+                "{} read as bridging ({}-{}) before any M-M bond, as such complexes are drawn",
+                ligand.key, ligand.modes[mu].label, ligand.key
             ),
         );
     }

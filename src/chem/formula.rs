@@ -82,7 +82,26 @@ const MAX_LIGANDS: u32 = 9_999;
 
 /// Parse a formula into a canonical [`Complex`].
 pub fn parse(input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseError> {
-    let (text, cols) = normalize(input);
+    // lattice water or solvent after a centred or plain dot ("K[PtCl3(C2H4)]·H2O") is not
+    // part of the complex
+    let (body, solvent) = match input.find(['·', '.']) {
+        Some(i) => (
+            &input[..i],
+            Some(input[i..].trim_start_matches(['·', '.']).trim()),
+        ),
+        None => (input, None),
+    };
+    let mut complex = parse_body(body, input, lookup)?;
+    if let Some(s) = solvent.filter(|s| !s.is_empty()) {
+        complex.notes.push(format!(
+            "{s} after the dot is lattice solvent, left out of the count"
+        ));
+    }
+    Ok(complex)
+}
+
+fn parse_body(body: &str, input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseError> {
+    let (text, cols) = normalize(body);
     let mut p = Parser {
         input,
         text: &text,
@@ -90,6 +109,7 @@ pub fn parse(input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseErr
         lookup,
         metals: 0,
     };
+    let _ = body;
     let mut notes = Vec::new();
     let start = p.isomer_prefix(&mut notes);
     let (body_end, written_charge) = p.split_charge(start)?;
@@ -222,7 +242,10 @@ const ISOMER_PREFIXES: &[&str] = &["trans-", "cis-", "fac-", "mer-", "syn-", "an
 /// Map look-alike characters onto the ones the grammar uses, remembering each character's
 /// column in the original text (None: plain ASCII, columns unchanged).
 fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
-    if input.bytes().all(|b| b.is_ascii() && b != b'\t') {
+    if input
+        .bytes()
+        .all(|b| b.is_ascii() && b != b'\t' && b != b'=')
+    {
         return (Cow::Borrowed(input), None);
     }
     const SUPER: &str = "⁰¹²³⁴⁵⁶⁷⁸⁹";
@@ -231,6 +254,10 @@ fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
     let mut cols = Vec::with_capacity(input.len());
     let mut in_super = false;
     for (col, c) in input.chars().enumerate() {
+        // bonds drawn in a formula ("(CO)5W=C(OMe)Ph", "PhC≡CPh") add nothing to read
+        if c == '=' || c == '≡' {
+            continue;
+        }
         // superscripts are a charge ("Fe(CO)₄²⁻"): they become "^2-", which cannot be read as a
         // multiplier
         let superscript = c == '⁺' || c == '⁻' || SUPER.contains(c);
@@ -487,16 +514,38 @@ impl<'a> Parser<'a> {
     ) -> Result<(usize, usize, Option<i32>), ParseError> {
         let t = &self.text[..end];
         let Some(open) = t[start..].find('[').map(|i| i + start) else {
-            return Ok((start, end, None));
+            // "Na2Fe(CO)4", "K2PtCl4": counter-cations before the metal without brackets
+            return Ok(self.bare_cations(start, end, notes));
         };
         let Ok(close) = self.matching(open, end) else {
             return Ok((start, end, None));
         };
         let before = &t[start..open];
         let after = &t[close + 1..];
+        if has_metal_token(before) && ion_list(before, CATIONS).is_none() {
+            return Err(self
+                .error(
+                    start,
+                    open - start,
+                    "a metal outside the brackets is a counter-ion, not part of the complex".into(),
+                )
+                .with_hint("count the complex ion with its charge, e.g. '[Co(SCN)4]2-'"));
+        }
         if after.starts_with(|c: char| c.is_ascii_digit()) {
             // a multiplier: `[CpFe(CO)2]2` is a dimer, not a salt
             return Ok((start, end, None));
+        }
+        if after.contains('[') {
+            return Err(self
+                .error(
+                    start,
+                    end - start,
+                    "two complex ions side by side: nonet counts one complex at a time".into(),
+                )
+                .with_hint(
+                    "count each ion with its charge, e.g. '[Pt(NH3)4]2+' '[PtCl4]2-'; to join \
+                     two metal fragments by an M-M bond write [[CpFe(CO)2][Mn(CO)5]]",
+                ));
         }
         let (Some(cations), Some(anions)) = (ion_list(before, CATIONS), ion_list(after, ANIONS))
         else {
@@ -517,6 +566,45 @@ impl<'a> Parser<'a> {
             if names.len() == 1 { "" } else { "s" }
         ));
         Ok((open, close + 1, Some(-outside)))
+    }
+
+    /// Counter-cations written before an unbracketed complex anion: "Na2Fe(CO)4" is
+    /// Na+ twice and [Fe(CO)4]2-.
+    fn bare_cations(
+        &self,
+        start: usize,
+        end: usize,
+        notes: &mut Vec<String>,
+    ) -> (usize, usize, Option<i32>) {
+        let t = &self.text[start..end];
+        let mut at = 0;
+        let mut names = Vec::new();
+        let mut charge = 0;
+        while let Some((name, q)) = CATIONS.iter().find(|(n, _)| t[at..].starts_with(n)) {
+            let after = at + name.len();
+            // "K" must not be the start of a longer metal symbol or ligand ("Ir", "Kr")
+            if t[after..].starts_with(|c: char| c.is_ascii_lowercase()) {
+                break;
+            }
+            let digits = t[after..].bytes().take_while(u8::is_ascii_digit).count();
+            let n: i32 = t[after..after + digits].parse().unwrap_or(1);
+            names.push(if n > 1 {
+                format!("{name}{n}")
+            } else {
+                name.to_string()
+            });
+            charge += q * n;
+            at = after + digits;
+        }
+        if names.is_empty() || element::symbol_prefix(&t[at..]).is_none() {
+            return (start, end, None);
+        }
+        notes.push(format!(
+            "{} taken as counter-ion{} outside the coordination sphere",
+            names.join(", "),
+            if names.len() == 1 { "" } else { "s" }
+        ));
+        (start + at, end, Some(-charge))
     }
 
     /// Read items until `end` or the closing character.

@@ -162,10 +162,10 @@ fn passes_ligand(l: &LigandDef, c: &Constraints) -> bool {
     if l.modes.is_empty() || l.modes[0].bridges > 1 {
         return false;
     }
-    if !c.families.is_empty() && !c.families.iter().any(|f| *f == l.family) {
+    if !c.families.is_empty() && !c.families.contains(&l.family) {
         return false;
     }
-    if c.exclude_families.iter().any(|f| *f == l.family) {
+    if c.exclude_families.contains(&l.family) {
         return false;
     }
     if c.no_hazardous && !l.hazards.is_empty() {

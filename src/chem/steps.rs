@@ -272,6 +272,8 @@ const SUBSTRATES: &[(&str, &str, &str)] = &[
     ("Ph3SiH", "SiPh3", "H"),
     ("HSiCl3", "SiCl3", "H"),
     ("HBpin", "Bpin", "H"),
+    ("PhOTf", "Ph", "OTf"),
+    ("MeOTf", "Me", "OTf"),
 ];
 
 /// 1,1-insertion of CO into M-R gives the acyl; 1,2-insertion of an alkene or alkyne into M-H
@@ -287,6 +289,7 @@ const INSERTIONS: &[(&str, &str, &str)] = &[
     ("C3H6", "H", "nPr"),
     ("C4H8", "H", "nBu"),
     ("C2H2", "H", "CHCH2"),
+    ("C2H4", "Ph", "CH2CH2Ph"),
 ];
 
 /// β-hydride elimination: the alkyl, and the alkene it leaves behind.
@@ -297,6 +300,7 @@ const BETA: &[(&str, &str)] = &[
     ("nBu", "C4H8"),
     ("tBu", "CH2CMe2"),
     ("Cy", "C6H10"),
+    ("CH2CH2Ph", "CH2CHPh"),
 ];
 
 /// α-hydride elimination: the alkyl, and the alkylidene it becomes.
@@ -542,6 +546,12 @@ pub fn take(
                 ));
             };
             cx.needs_open_site("β-hydride elimination")?;
+            if cx.metal().target == 16 && cx.metal().saturation == Saturation::Saturated {
+                return refuse(
+                    "a 16-e square-planar complex has no cis site for the β-hydrogen: a ligand \
+                     must leave first (Whitesides; Crabtree 2014, ch. 7)",
+                );
+            }
             let h = cx.ligand("H")?;
             let ene = cx.ligand(alkene)?;
             let once = remove(complex, slot)?;
@@ -558,26 +568,47 @@ pub fn take(
                     ALPHA.iter().map(|(a, _)| *a).collect::<Vec<_>>().join(", ")
                 ));
             };
-            if cx.d() < Frac::int(2) {
-                return refuse(format!(
-                    "α-elimination raises the oxidation state by two; the metal is d{}",
-                    cx.d()
-                ));
-            }
-            cx.needs_open_site("α-elimination")?;
-            let h = cx.ligand("H")?;
             let yl = cx.ligand(ylidene)?;
             let x2 = yl.modes.iter().position(|m| m.class.x == 2).unwrap_or(0);
-            let once = remove(complex, slot)?;
-            let twice = add(&once, h)?;
-            edit(
-                &twice,
-                &Edit::Add {
-                    place: Place::Site(0),
-                    ligand: yl.clone(),
-                    mode: x2,
-                },
-            )?
+            let ylidene_in = |c: &Complex| {
+                edit(
+                    c,
+                    &Edit::Add {
+                        place: Place::Site(0),
+                        ligand: yl.clone(),
+                        mode: x2,
+                    },
+                )
+            };
+            if cx.d() < Frac::int(2) {
+                // a d0 metal cannot rise by two: with a second alkyl it abstracts instead,
+                // M(CH2R)2 -> M(=CHR) + CH3R, no change in oxidation state (Schrock's
+                // Ta(CH2tBu)5 -> Ta(=CHtBu)(CH2tBu)3 + CMe4; Crabtree 2014, ch. 7)
+                let units = complex.group(slot).map_or(0, |b| b.count);
+                if units < 2 {
+                    return refuse(format!(
+                        "α-elimination raises the oxidation state by two and the metal is d{}; \
+                         α-abstraction needs a second {}",
+                        cx.d(),
+                        l.key
+                    ));
+                }
+                let once = remove(complex, slot)?;
+                let c2 = Ctx {
+                    c: &once,
+                    r: &before,
+                    lookup,
+                };
+                let slot2 = c2.slot(tok)?;
+                let twice = remove(&once, slot2)?;
+                ylidene_in(&twice)?
+            } else {
+                cx.needs_open_site("α-elimination")?;
+                let h = cx.ligand("H")?;
+                let once = remove(complex, slot)?;
+                let twice = add(&once, h)?;
+                ylidene_in(&twice)?
+            }
         }
         Step::RingSlip { ligand, hapticity } => {
             let slot = cx.slot(ligand)?;

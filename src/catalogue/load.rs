@@ -263,7 +263,7 @@ fn convert(raw: RawLigand, origin: &str) -> Result<LigandDef, Problem> {
         name: raw.name,
         formula: raw.formula,
         aliases: raw.aliases,
-        family: raw.family,
+        family: raw.family.clone(),
         field: raw.field,
         pi_donor: raw.pi_donor,
         cone_angle,
@@ -273,6 +273,7 @@ fn convert(raw: RawLigand, origin: &str) -> Result<LigandDef, Problem> {
         notes: raw.notes,
         modes,
         origin: origin.to_string(),
+        traits: crate::chem::ligand::FamilyTraits::of(&raw.family),
     })
 }
 

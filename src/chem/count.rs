@@ -194,18 +194,6 @@ pub struct Report {
     pub notes: Vec<String>,
 }
 
-/// Ligand families whose heteroatom lone pairs bridge metals or hold square-planar d8 centres.
-pub const HETERO_X: &[&str] = &[
-    "halide",
-    "alkoxide",
-    "thiolate",
-    "amide",
-    "carboxylate",
-    "diketonate",
-    "pseudohalide",
-    "oxo",
-];
-
 /// Why a metal forms no M-M bond, if it does not: no d electrons to share (d0), a closed shell
 /// (d10), a square-planar d8 centre content at 16 e, an f-block metal, or a first-row metal in
 /// a high oxidation state (Fe(III), Ti(III) dimers are bridged, not bonded; common practice).
@@ -404,17 +392,21 @@ pub fn count(complex: &Complex) -> Report {
         .zip(&oxidation)
         .map(|(v, os)| -*os + *v)
         .collect();
-    let hetero: Vec<bool> = complex
-        .sites
-        .iter()
-        .map(|s| {
-            s.ligands
-                .iter()
-                .chain(&complex.shared)
-                .any(|b| HETERO_X.contains(&b.ligand.family.as_str()))
-        })
-        .collect();
     let polynuclear = complex.metal_count() >= 2;
+    let hetero: Vec<bool> = if polynuclear {
+        complex
+            .sites
+            .iter()
+            .map(|s| {
+                s.ligands
+                    .iter()
+                    .chain(&complex.shared)
+                    .any(|b| b.ligand.traits.hetero_x)
+            })
+            .collect()
+    } else {
+        Vec::new()
+    };
     let targets: Vec<u8> = complex
         .sites
         .iter()
@@ -435,7 +427,7 @@ pub fn count(complex: &Complex) -> Report {
                 && !ring
                 && d.as_int() == Some(8)
                 && t.sites == Frac::int(4)
-                && (!polynuclear || hetero[i])
+                && (!polynuclear || hetero.get(i).copied().unwrap_or(false))
                 && spin::square_planar_d8(
                     s.element.symbol,
                     s.element.group,
@@ -886,12 +878,9 @@ fn centre_guess(complex: &Complex, i: usize, m: &MetalReport) -> SpinGuess {
         if mode.hapticity().is_some_and(|h| h >= 5) {
             rings += b.count;
         }
-        planar_ligand |= b.ligand.family == "macrocycle" && mode.sites == 4;
-        pi_acceptor |= matches!(
-            b.ligand.family.as_str(),
-            "carbonyl" | "isocyanide" | "nitrosyl" | "alkene" | "alkyne"
-        );
-        multiple_bond |= matches!(b.ligand.family.as_str(), "oxo" | "imido" | "nitrido");
+        planar_ligand |= b.ligand.traits.macrocycle && mode.sites == 4;
+        pi_acceptor |= b.ligand.traits.pi_acceptor;
+        multiple_bond |= b.ligand.traits.multiple_bond;
         if let Some(f) = b.ligand.field {
             let w = (b.count as f64) * mode.sites as f64;
             field_sum += f.score() * w;

@@ -33,17 +33,31 @@ pub fn fit_modes(c: &mut Complex) {
         return;
     }
     // most formulas have nothing to settle: say so without counting
-    let open = c.sites[0].ligands.iter().any(|b| {
-        !b.pinned
-            && (FLEXIBLE.contains(&b.ligand.family.as_str())
-                || b.ligand.family == "alkylidene"
-                || b.ligand.family == "cyclopentadienyl")
-    });
-    if !open {
+    let flexible = c.sites[0]
+        .ligands
+        .iter()
+        .any(|b| !b.pinned && FLEXIBLE.contains(&b.ligand.family.as_str()));
+    let carbene = c.sites[0]
+        .ligands
+        .iter()
+        .any(|b| !b.pinned && b.ligand.family == "alkylidene");
+    let rings = c.sites[0]
+        .ligands
+        .iter()
+        .filter(|b| !b.pinned && b.ligand.family == "cyclopentadienyl")
+        .map(|b| b.count)
+        .sum::<u32>();
+    // Cp rings only slip past 20 e, which takes three or more of them
+    if !flexible && !carbene && rings < 3 {
         return;
     }
-    carbene_type(c);
+    if carbene {
+        carbene_type(c);
+    }
     lower_modes(c, None);
+    if !flexible {
+        return;
+    }
     // a d8 metal of groups 9-11 that settled at 18 e may rather be a 16-e square-planar
     // complex with its flexible ligands further down (Pd(κ1-OAc)2(PPh3)2)
     let r = count(c);

@@ -154,6 +154,7 @@ fn parse_body(body: &str, input: &str, lookup: &dyn LigandLookup) -> Result<Comp
     let n = complex.metal_count();
     // a bridge written without its mode spans as many metals as there are, up to its own
     // reach: C in Fe5C(CO)15 is μ5
+    let mut reset = false;
     for b in complex
         .sites
         .iter_mut()
@@ -166,10 +167,13 @@ fn parse_body(body: &str, input: &str, lookup: &dyn LigandLookup) -> Result<Comp
                 .max_by_key(|&i| b.ligand.modes[i].bridges)
             {
                 b.mode = i;
+                reset = true;
             }
         }
     }
-    complex.canonicalize();
+    if reset {
+        complex.canonicalize();
+    }
     for (_, b) in complex.all_ligands() {
         let m = b.mode();
         if m.bridges as usize > n {

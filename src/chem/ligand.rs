@@ -204,6 +204,52 @@ impl BindingMode {
     }
 }
 
+/// What a ligand's family implies for the counting rules, worked out once when the ligand is
+/// loaded (the rules ask for every ligand of every count).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub struct FamilyTraits {
+    /// CO, isocyanide, NO, alkene, alkyne: back-bonding ligands.
+    pub pi_acceptor: bool,
+    /// Oxo, imido, nitrido: metal-ligand multiple bonds.
+    pub multiple_bond: bool,
+    /// Porphyrinates, salen and the like.
+    pub macrocycle: bool,
+    /// Heteroatom X ligands that bridge or hold square-planar d8 centres.
+    pub hetero_x: bool,
+    /// Organometallic (non-Werner) ligands: π acceptors and π-bound hydrocarbons.
+    pub organometallic: bool,
+}
+
+impl FamilyTraits {
+    pub fn of(family: &str) -> FamilyTraits {
+        let pi_acceptor = matches!(
+            family,
+            "carbonyl" | "isocyanide" | "nitrosyl" | "alkene" | "alkyne"
+        );
+        FamilyTraits {
+            pi_acceptor,
+            multiple_bond: matches!(family, "oxo" | "imido" | "nitrido"),
+            macrocycle: family == "macrocycle",
+            hetero_x: matches!(
+                family,
+                "halide"
+                    | "alkoxide"
+                    | "thiolate"
+                    | "amide"
+                    | "carboxylate"
+                    | "diketonate"
+                    | "pseudohalide"
+                    | "oxo"
+            ),
+            organometallic: pi_acceptor
+                || matches!(
+                    family,
+                    "cyclopentadienyl" | "arene" | "diene" | "allyl" | "polyene"
+                ),
+        }
+    }
+}
+
 /// A ligand as the catalogue defines it.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct LigandDef {
@@ -222,6 +268,9 @@ pub struct LigandDef {
     pub modes: Vec<BindingMode>,
     /// Which set it came from ("bundled:phosphorus", or a user file path).
     pub origin: String,
+    /// What the family implies, from `FamilyTraits::of(&family)`.
+    #[serde(skip)]
+    pub traits: FamilyTraits,
 }
 
 impl LigandDef {

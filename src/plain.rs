@@ -23,6 +23,7 @@ pub fn ascii_text(s: &str) -> String {
             'θ' => "theta",
             'Δ' => "Delta",
             'Ω' => "Omega",
+            'Å' => "A",
             '·' | '•' => "-",
             '×' => "x",
             '−' | '–' | '—' => "-",

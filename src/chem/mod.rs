@@ -12,9 +12,11 @@ pub mod frac;
 pub mod ligand;
 pub mod preview;
 pub mod screen;
+pub mod shape;
 pub mod spin;
 pub mod steps;
 pub mod sterics;
+pub mod structure;
 
 pub use complex::{BoundLigand, Complex, MetalSite};
 pub use count::{count, Report};

@@ -3,6 +3,7 @@
 mod json;
 mod jsonw;
 mod screen;
+mod sterics;
 mod text;
 
 use std::io::{self, BufRead, BufWriter, Write};
@@ -171,6 +172,40 @@ pub enum Command {
         #[arg(long)]
         json: bool,
     },
+    /// Steric descriptors of a ligand from its structure (XYZ or MDL molfile/SDF V2000).
+    Sterics {
+        /// The structure file, in ångström.
+        #[arg(value_name = "FILE")]
+        file: PathBuf,
+        /// The donor atom's number in the file (needed when the file has no metal).
+        #[arg(long, value_name = "N")]
+        donor: Option<usize>,
+        /// Metal-donor distance for a placed metal, Å (2.28 as Tolman used for phosphines;
+        /// 2.00 is usual for carbenes).
+        #[arg(long, default_value_t = 2.28, value_name = "Å")]
+        distance: f64,
+        /// Leave hydrogens out of the buried volume.
+        #[arg(long)]
+        no_hydrogens: bool,
+        /// One JSON object.
+        #[arg(long)]
+        json: bool,
+        /// Store the ligand, with its computed cone angle, in this user ligand set.
+        #[arg(long, value_name = "SET")]
+        add_to: Option<String>,
+        /// The key for --add-to (as it will be written in formulas).
+        #[arg(long, value_name = "KEY")]
+        key: Option<String>,
+        /// A name for --add-to.
+        #[arg(long, value_name = "NAME")]
+        name: Option<String>,
+        /// The CBC class of the stored ligand's binding mode.
+        #[arg(long, default_value = "L", value_name = "CLASS")]
+        class: String,
+        /// The family of the stored ligand.
+        #[arg(long, default_value = "phosphine", value_name = "FAMILY")]
+        family: String,
+    },
     /// List the ligand catalogue, or search it when QUERY is given.
     Ligands {
         /// Words to match against keys, names, formulas and aliases.
@@ -285,6 +320,30 @@ where
             top,
             shard,
             json,
+        }),
+        Some(Command::Sterics {
+            file,
+            donor,
+            distance,
+            no_hydrogens,
+            json,
+            add_to,
+            key,
+            name,
+            class,
+            family,
+        }) => sterics::run(sterics::StericsRequest {
+            file,
+            donor,
+            distance,
+            hydrogens: !no_hydrogens,
+            json,
+            add_to,
+            key,
+            name,
+            class,
+            family,
+            ascii,
         }),
         Some(Command::Ligands { query, json, paths }) => {
             if paths {

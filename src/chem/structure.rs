@@ -1,0 +1,200 @@
+//! Molecular geometry read from XYZ files and MDL molfiles/SDF (V2000), in ångström.
+
+use std::fmt;
+
+/// One atom: element symbol and position (Å).
+#[derive(Debug, Clone, PartialEq)]
+pub struct Atom {
+    pub symbol: String,
+    pub pos: [f64; 3],
+}
+
+/// A structure file that cannot be read: where and why.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct StructureError {
+    pub line: usize,
+    pub message: String,
+}
+
+impl fmt::Display for StructureError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        write!(f, "line {}: {}", self.line, self.message)
+    }
+}
+
+impl std::error::Error for StructureError {}
+
+fn err<T>(line: usize, message: impl Into<String>) -> Result<T, StructureError> {
+    Err(StructureError {
+        line,
+        message: message.into(),
+    })
+}
+
+/// Normalise an element symbol ("CL" -> "Cl") and check it looks like one.
+fn symbol(raw: &str, line: usize) -> Result<String, StructureError> {
+    let t = raw.trim();
+    let letters: String = t.chars().take_while(|c| c.is_ascii_alphabetic()).collect();
+    if letters.is_empty() || letters.len() > 2 {
+        return err(line, format!("'{t}' is not an element symbol"));
+    }
+    let mut s = letters[..1].to_ascii_uppercase();
+    s.push_str(&letters[1..].to_ascii_lowercase());
+    Ok(s)
+}
+
+fn coord(raw: &str, line: usize, what: &str) -> Result<f64, StructureError> {
+    match raw.trim().parse::<f64>() {
+        Ok(v) if v.is_finite() => Ok(v),
+        _ => err(line, format!("{what} '{}' is not a number", raw.trim())),
+    }
+}
+
+/// XYZ: an atom count, a comment line, then "Symbol x y z" per atom.
+pub fn parse_xyz(text: &str) -> Result<Vec<Atom>, StructureError> {
+    let lines: Vec<&str> = text.lines().collect();
+    let Some(first) = lines.first() else {
+        return err(1, "empty file: an XYZ file starts with the number of atoms");
+    };
+    let n: usize = match first.trim().parse() {
+        Ok(n) if n > 0 => n,
+        _ => {
+            return err(
+                1,
+                format!(
+                    "'{}' is not an atom count (XYZ files start with one)",
+                    first.trim()
+                ),
+            )
+        }
+    };
+    if lines.len() < n + 2 {
+        return err(
+            lines.len() + 1,
+            format!(
+                "the file promises {n} atoms but has {} atom lines",
+                lines.len().saturating_sub(2)
+            ),
+        );
+    }
+    let mut atoms = Vec::with_capacity(n);
+    for (i, line) in lines[2..2 + n].iter().enumerate() {
+        let no = i + 3;
+        let f: Vec<&str> = line.split_whitespace().collect();
+        if f.len() < 4 {
+            return err(no, "an atom line needs a symbol and x, y, z");
+        }
+        atoms.push(Atom {
+            symbol: symbol(f[0], no)?,
+            pos: [
+                coord(f[1], no, "x")?,
+                coord(f[2], no, "y")?,
+                coord(f[3], no, "z")?,
+            ],
+        });
+    }
+    Ok(atoms)
+}
+
+/// MDL molfile V2000 (or the first record of an SDF): header, counts line, atom block.
+pub fn parse_molfile(text: &str) -> Result<Vec<Atom>, StructureError> {
+    let lines: Vec<&str> = text.lines().collect();
+    let Some(counts) = lines.get(3) else {
+        return err(
+            lines.len() + 1,
+            "a molfile needs three header lines and a counts line",
+        );
+    };
+    if counts.contains("V3000") {
+        return err(4, "V3000 molfiles are not read; save as V2000");
+    }
+    let n: usize = counts
+        .get(0..3)
+        .and_then(|s| s.trim().parse().ok())
+        .ok_or(StructureError {
+            line: 4,
+            message: format!("counts line '{counts}' does not start with the atom count"),
+        })?;
+    if n == 0 {
+        return err(4, "the counts line says there are no atoms");
+    }
+    let mut atoms = Vec::with_capacity(n);
+    for i in 0..n {
+        let no = 5 + i;
+        let Some(line) = lines.get(4 + i) else {
+            return err(
+                no,
+                format!("the counts line promises {n} atoms; the file ends first"),
+            );
+        };
+        // fixed columns: x 1-10, y 11-20, z 21-30, symbol 32-34; fall back to whitespace
+        let fixed = (
+            line.get(0..10),
+            line.get(10..20),
+            line.get(20..30),
+            line.get(31..34),
+        );
+        let atom = match fixed {
+            (Some(x), Some(y), Some(z), Some(s)) if x.trim().parse::<f64>().is_ok() => Atom {
+                symbol: symbol(s, no)?,
+                pos: [coord(x, no, "x")?, coord(y, no, "y")?, coord(z, no, "z")?],
+            },
+            _ => {
+                let f: Vec<&str> = line.split_whitespace().collect();
+                if f.len() < 4 {
+                    return err(no, "an atom line needs x, y, z and a symbol");
+                }
+                Atom {
+                    symbol: symbol(f[3], no)?,
+                    pos: [
+                        coord(f[0], no, "x")?,
+                        coord(f[1], no, "y")?,
+                        coord(f[2], no, "z")?,
+                    ],
+                }
+            }
+        };
+        atoms.push(atom);
+    }
+    Ok(atoms)
+}
+
+/// Read by content: a first line that is a number means XYZ, otherwise a molfile/SDF.
+pub fn parse(text: &str) -> Result<Vec<Atom>, StructureError> {
+    let first = text.lines().next().unwrap_or("").trim();
+    if first.parse::<usize>().is_ok() {
+        parse_xyz(text)
+    } else {
+        parse_molfile(text)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn xyz_and_molfile_read_the_same_atoms() {
+        let xyz = "2\nphosphine fragment\nP 0 0 0\nH 1.42 0 0\n";
+        let a = parse(xyz).unwrap();
+        assert_eq!(a.len(), 2);
+        assert_eq!(a[1].symbol, "H");
+        let mol = "PH\n  test\n\n  2  1  0  0  0  0  0  0  0  0999 V2000\n    0.0000    0.0000    0.0000 P   0  0\n    1.4200    0.0000    0.0000 H   0  0\n  1  2  1  0\nM  END\n$$$$\n";
+        let b = parse(mol).unwrap();
+        assert_eq!(a, b);
+    }
+
+    #[test]
+    fn malformed_files_name_the_line() {
+        assert_eq!(parse_xyz("x\n").unwrap_err().line, 1);
+        assert_eq!(parse_xyz("2\nc\nP 0 0 0\n").unwrap_err().line, 4);
+        assert_eq!(parse_xyz("1\nc\nP 0 zero 0\n").unwrap_err().line, 3);
+        assert_eq!(parse_molfile("a\nb\nc\n").unwrap_err().line, 4);
+        assert!(
+            parse_molfile("a\nb\nc\n  1  0  0  0  0  0  0  0  0  0999 V3000\n")
+                .unwrap_err()
+                .message
+                .contains("V3000")
+        );
+    }
+}

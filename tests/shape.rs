@@ -31,7 +31,10 @@ fn tilt(alpha: f64) -> f64 {
 }
 
 /// PX3 with the metal 2.28 Å below P on the axis, three groups placed by `group`.
-fn phosphine(alpha: f64, group: &dyn Fn([f64; 3], [f64; 3], &mut Vec<Atom>)) -> Vec<Atom> {
+/// Places one substituent: (P position, bond direction, atoms so far).
+type PlaceGroup = dyn Fn([f64; 3], [f64; 3], &mut Vec<Atom>);
+
+fn phosphine(alpha: f64, group: &PlaceGroup) -> Vec<Atom> {
     let mut atoms = vec![atom("Ni", [0.0, 0.0, -2.28]), atom("P", [0.0; 3])];
     let b = tilt(alpha);
     for k in 0..3 {

@@ -32,9 +32,9 @@ fn tilt(alpha: f64) -> f64 {
 
 /// PX3 with the metal 2.28 Å below P on the axis, three groups placed by `group`.
 /// Places one substituent: (P position, bond direction, atoms so far).
-type PlaceGroup = dyn Fn([f64; 3], [f64; 3], &mut Vec<Atom>);
+type PlaceGroup<'a> = dyn Fn([f64; 3], [f64; 3], &mut Vec<Atom>) + 'a;
 
-fn phosphine(alpha: f64, group: &PlaceGroup) -> Vec<Atom> {
+fn phosphine(alpha: f64, group: &PlaceGroup<'_>) -> Vec<Atom> {
     let mut atoms = vec![atom("Ni", [0.0, 0.0, -2.28]), atom("P", [0.0; 3])];
     let b = tilt(alpha);
     for k in 0..3 {

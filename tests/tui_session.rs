@@ -155,3 +155,26 @@ fn insertion_and_elimination_keys_act_on_the_selected_ligand() {
     assert_eq!(app.complex.charge, 0);
     let _ = std::fs::remove_dir_all(&dir);
 }
+
+#[test]
+fn the_screening_view_ranks_swaps_and_opens_the_preview() {
+    let (mut app, dir) = planner("IrCl(CO)(PPh3)2", "screen");
+    app.row = row_of(&app, "PPh3");
+    press(&mut app, "S");
+    assert_eq!(app.mode, Mode::Screen);
+    assert!(!app.screen.found.is_empty());
+    // an electron target of 16 and a crowding limit keep only fitting ligands
+    press(&mut app, "eg");
+    assert!(app
+        .screen
+        .found
+        .iter()
+        .all(|c| c.electrons.as_int() == Some(16) && c.crowding <= 1.15));
+    let first = app.screen.found[0].ligands[0].key.clone();
+    press(&mut app, "<enter>");
+    assert_eq!(app.mode, Mode::Normal);
+    assert_eq!(app.selected_ligand().map(|l| l.key.clone()), Some(first));
+    let p = app.preview.clone().expect("preview").expect("a swap");
+    assert_eq!(p.after_report.metals[0].electron_count.as_int(), Some(16));
+    let _ = std::fs::remove_dir_all(&dir);
+}

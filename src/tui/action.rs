@@ -55,4 +55,15 @@ pub enum Action {
     CompareVariant,
     /// Write the session out as Markdown.
     Export,
+    /// Rank every catalogue ligand in place of the selected one.
+    OpenScreen,
+    /// Screening constraints, each a toggle or a cycle.
+    ScreenElectrons,
+    ScreenSaturated,
+    ScreenCrowding,
+    ScreenDiamagnetic,
+    ScreenNoHazards,
+    ScreenRank,
+    /// Take the highlighted candidate to the swap preview.
+    ScreenPick,
 }

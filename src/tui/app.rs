@@ -11,6 +11,7 @@ use crate::catalogue::{Catalogue, FAMILIES};
 use crate::chem::edit::{Edit, Place, Slot};
 use crate::chem::ligand::{CbcClass, LigandDef};
 use crate::chem::preview::{self, Change, Preview};
+use crate::chem::screen::{self, Rank};
 use crate::chem::steps::{self, Step};
 use crate::chem::{count, parse, Complex, Report};
 use crate::session::Session;
@@ -34,6 +35,8 @@ pub enum Mode {
     Tree,
     /// Two variants side by side.
     Compare,
+    /// Ranked swaps for the selected ligand.
+    Screen,
 }
 
 /// What a typed line is for.
@@ -78,6 +81,31 @@ pub struct Notice {
     pub error: bool,
 }
 
+/// The screening view's state.
+#[derive(Debug, Clone)]
+pub struct ScreenView {
+    pub constraints: screen::Constraints,
+    /// Electron target, if any (16 or 18).
+    pub electrons: Option<i64>,
+    pub rank: Rank,
+    pub found: Vec<screen::Candidate>,
+    pub row: usize,
+    pub problem: Option<String>,
+}
+
+impl Default for ScreenView {
+    fn default() -> ScreenView {
+        ScreenView {
+            constraints: screen::Constraints::default(),
+            electrons: None,
+            rank: Rank::Electrons,
+            found: Vec::new(),
+            row: 0,
+            problem: None,
+        }
+    }
+}
+
 /// Steps that join the selected ligand with a partner.
 #[derive(Debug, Clone, Copy)]
 enum PairStep {
@@ -104,6 +132,8 @@ pub struct App {
     pub tree_row: usize,
     /// The variant compared with the working one.
     pub compare: Option<u64>,
+    /// The screening view: its constraints, ranking, candidates and cursor.
+    pub screen: ScreenView,
     pub focus: Focus,
     pub mode: Mode,
     /// Selected row of the working complex (index into `complex.slots()`).
@@ -140,6 +170,7 @@ impl App {
             variant: None,
             tree_row: 0,
             compare: None,
+            screen: ScreenView::default(),
             focus: Focus::Complex,
             mode: Mode::Normal,
             row: 0,
@@ -170,6 +201,7 @@ impl App {
             Mode::Help => Context::Help,
             Mode::Tree => Context::Tree,
             Mode::Compare => Context::Compare,
+            Mode::Screen => Context::Screen,
             Mode::Normal => match self.focus {
                 Focus::Complex => Context::Complex,
                 Focus::Catalogue => Context::Catalogue,
@@ -300,6 +332,51 @@ impl App {
             }
             Action::CompareVariant => self.open_compare(),
             Action::Export => self.export(),
+            Action::OpenScreen => {
+                self.mode = Mode::Screen;
+                self.screen.row = 0;
+                self.rescreen();
+            }
+            Action::ScreenElectrons => {
+                self.screen.electrons = match self.screen.electrons {
+                    None => Some(16),
+                    Some(16) => Some(18),
+                    _ => None,
+                };
+                self.rescreen();
+            }
+            Action::ScreenSaturated => {
+                self.screen.constraints.saturated ^= true;
+                self.rescreen();
+            }
+            Action::ScreenCrowding => {
+                self.screen.constraints.max_crowding = match self.screen.constraints.max_crowding {
+                    None => Some(crate::chem::sterics::CROWDED),
+                    Some(x) if x < crate::chem::sterics::OVERFULL => {
+                        Some(crate::chem::sterics::OVERFULL)
+                    }
+                    _ => None,
+                };
+                self.rescreen();
+            }
+            Action::ScreenDiamagnetic => {
+                self.screen.constraints.diamagnetic ^= true;
+                self.rescreen();
+            }
+            Action::ScreenNoHazards => {
+                self.screen.constraints.no_hazardous ^= true;
+                self.rescreen();
+            }
+            Action::ScreenRank => {
+                self.screen.rank = match self.screen.rank {
+                    Rank::Electrons => Rank::Crowding,
+                    Rank::Crowding => Rank::Donor,
+                    Rank::Donor => Rank::Cone,
+                    Rank::Cone => Rank::Electrons,
+                };
+                self.rescreen();
+            }
+            Action::ScreenPick => self.screen_pick(),
             Action::PendAdd => self.set_pending(Pending::Add),
             Action::PendRemove => self.set_pending(Pending::Remove),
             Action::PendMode => self.pend_next_mode(),
@@ -328,6 +405,12 @@ impl App {
     fn move_by(&mut self, delta: i32) {
         if self.mode == Mode::Help {
             self.help_scroll = (self.help_scroll as i32 + delta).max(0) as u16;
+            return;
+        }
+        if self.mode == Mode::Screen {
+            let n = self.screen.found.len();
+            self.screen.row =
+                (self.screen.row as i64 + delta as i64).clamp(0, n.max(1) as i64 - 1) as usize;
             return;
         }
         if self.mode == Mode::Tree {
@@ -570,6 +653,60 @@ impl App {
         if !text.is_empty() {
             self.set_pending(Pending::Step(Step::OxidativeAddition(text)));
         }
+    }
+
+    /// Run the screen again for the selected ligand under the current constraints.
+    fn rescreen(&mut self) {
+        self.screen.constraints.electrons = self.screen.electrons.map(|e| (e, e));
+        self.screen.found.clear();
+        self.screen.problem = None;
+        let Some(slot) = self.selected_slot() else {
+            self.screen.problem = Some("select a ligand of the working complex first".into());
+            return;
+        };
+        match screen::screen(
+            &self.complex,
+            &[slot],
+            self.cat.ligands(),
+            &self.screen.constraints,
+            self.screen.rank,
+            50,
+            None,
+        ) {
+            Ok(found) => self.screen.found = found,
+            Err(e) => self.screen.problem = Some(e.to_string()),
+        }
+        let n = self.screen.found.len();
+        if self.screen.row >= n {
+            self.screen.row = n.saturating_sub(1);
+        }
+    }
+
+    /// Put the highlighted candidate in the catalogue selection: the normal preview shows it.
+    fn screen_pick(&mut self) {
+        let Some(key) = self
+            .screen
+            .found
+            .get(self.screen.row)
+            .and_then(|c| c.ligands.first())
+            .map(|l| l.key.clone())
+        else {
+            return;
+        };
+        self.query.clear();
+        self.family = None;
+        self.class = None;
+        self.refilter(false);
+        if let Some(i) = self
+            .hits
+            .iter()
+            .position(|&h| self.cat.ligands()[h].key == key)
+        {
+            self.hit = i;
+        }
+        self.mode = Mode::Normal;
+        self.pending = Pending::Swap;
+        self.refresh_preview();
     }
 
     fn open_tree(&mut self) {

@@ -24,6 +24,8 @@ pub enum Context {
     Tree,
     /// Two variants side by side.
     Compare,
+    /// Ranked swaps for the selected ligand.
+    Screen,
 }
 
 impl Context {
@@ -37,6 +39,7 @@ impl Context {
             Context::Help => "This help",
             Context::Tree => "Session tree",
             Context::Compare => "Comparing variants",
+            Context::Screen => "Screening swaps",
         }
     }
 }
@@ -486,6 +489,103 @@ pub static BINDINGS: &[Binding] = &[
         "",
         Context::Formula,
     ),
+    // screening swaps for the selected ligand
+    b(
+        &[Key::ch('S')],
+        "S",
+        Action::OpenScreen,
+        "screen every catalogue ligand in place of the selected one",
+        "screen",
+        Context::Complex,
+    ),
+    b(
+        &[Key::ch('k'), Key::plain(Up)],
+        "k/↑",
+        Action::Up,
+        "previous candidate",
+        "",
+        Context::Screen,
+    ),
+    b(
+        &[Key::ch('j'), Key::plain(Down)],
+        "j/↓",
+        Action::Down,
+        "next candidate",
+        "",
+        Context::Screen,
+    ),
+    b(
+        &[Key::plain(Enter)],
+        "Enter",
+        Action::ScreenPick,
+        "preview this swap",
+        "preview",
+        Context::Screen,
+    ),
+    b(
+        &[Key::ch('e')],
+        "e",
+        Action::ScreenElectrons,
+        "electron target: any, 16, 18",
+        "e",
+        Context::Screen,
+    ),
+    b(
+        &[Key::ch('s')],
+        "s",
+        Action::ScreenSaturated,
+        "saturated products only",
+        "sat",
+        Context::Screen,
+    ),
+    b(
+        &[Key::ch('g')],
+        "g",
+        Action::ScreenCrowding,
+        "crowding limit: none, 1.15, 1.35",
+        "crowd",
+        Context::Screen,
+    ),
+    b(
+        &[Key::ch('m')],
+        "m",
+        Action::ScreenDiamagnetic,
+        "diamagnetic products only",
+        "dia",
+        Context::Screen,
+    ),
+    b(
+        &[Key::ch('h')],
+        "h",
+        Action::ScreenNoHazards,
+        "no hazardous free ligands",
+        "safe",
+        Context::Screen,
+    ),
+    b(
+        &[Key::ch('r')],
+        "r",
+        Action::ScreenRank,
+        "rank by electrons, crowding, donor, cone",
+        "rank",
+        Context::Screen,
+    ),
+    b(
+        &[Key::plain(Esc), Key::ch('q')],
+        "Esc",
+        Action::CloseHelp,
+        "close",
+        "close",
+        Context::Screen,
+    ),
+    b(
+        &[Key::ctrl('c')],
+        "^C",
+        Action::Quit,
+        "quit",
+        "",
+        Context::Screen,
+    ),
     // the session tree
     b(
         &[Key::ch('k'), Key::plain(Up)],
@@ -599,7 +699,12 @@ pub static BINDINGS: &[Binding] = &[
 pub fn lookup(ev: &KeyEvent, context: Context) -> Option<Action> {
     let typing = matches!(
         context,
-        Context::Search | Context::Formula | Context::Help | Context::Tree | Context::Compare
+        Context::Search
+            | Context::Formula
+            | Context::Help
+            | Context::Tree
+            | Context::Compare
+            | Context::Screen
     );
     BINDINGS
         .iter()
@@ -612,7 +717,12 @@ pub fn lookup(ev: &KeyEvent, context: Context) -> Option<Action> {
 pub fn footer(context: Context) -> impl Iterator<Item = &'static Binding> {
     let typing = matches!(
         context,
-        Context::Search | Context::Formula | Context::Help | Context::Tree | Context::Compare
+        Context::Search
+            | Context::Formula
+            | Context::Help
+            | Context::Tree
+            | Context::Compare
+            | Context::Screen
     );
     BINDINGS.iter().filter(move |b| {
         !b.short.is_empty() && (b.context == context || (!typing && b.context == Context::Global))

@@ -152,3 +152,80 @@ pub fn render_compare(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
         right,
     );
 }
+
+/// The ranked swaps for the selected ligand, with the constraints in force.
+pub fn render_screen(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
+    let area = popup(area);
+    f.render_widget(Clear, area);
+    let leaving = app
+        .selected_slot()
+        .and_then(|s| app.complex.group(s))
+        .map_or("?".to_string(), |b| b.ligand.key.clone());
+    let title = format!("Swaps for {leaving}, best first");
+    let b = block(app, &title, true, t);
+    let inner = b.inner(area);
+    f.render_widget(b, area);
+    let v = &app.screen;
+    let k = &v.constraints;
+    let on = |x: bool| if x { "on" } else { "off" };
+    let mut lines = vec![
+        Line::styled(
+            format!(
+                "e target {} · saturated {} · crowding {} · diamagnetic {} · no hazards {} · rank {:?}",
+                v.electrons.map_or("any".to_string(), |e| e.to_string()),
+                on(k.saturated),
+                k.max_crowding.map_or("any".to_string(), |c| format!("<= {c:.2}")),
+                on(k.diamagnetic),
+                on(k.no_hazardous),
+                v.rank
+            ),
+            t.dim(),
+        ),
+        Line::styled(
+            format!(
+                "  {:<4}{:<14}{:>5}{:>5}{:>5}  {:<12}{:>7}{:>6}{:>7}{:>4}",
+                "#", "ligand", "e", "OS", "d", "saturation", "crowd", "cone", "TEP", "unp"
+            ),
+            t.heading(),
+        ),
+    ];
+    if let Some(p) = &v.problem {
+        lines.push(Line::styled(p.clone(), t.warn()));
+    } else if v.found.is_empty() {
+        lines.push(Line::styled("no ligand meets these constraints", t.warn()));
+    }
+    let room = (inner.height as usize).saturating_sub(lines.len());
+    let first = v.row.saturating_sub(room.saturating_sub(1));
+    for (i, c) in v.found.iter().enumerate().skip(first).take(room) {
+        let l = &c.ligands[0];
+        let m = c.report.metals.first();
+        let text = format!(
+            "{} {:<4}{:<14}{:>5}{:>5}{:>5}  {:<12}{:>7.2}{:>6}{:>7}{:>4}",
+            marker(app, i == v.row),
+            i + 1,
+            l.key,
+            c.electrons.to_string(),
+            c.oxidation_state.to_string(),
+            c.d_electrons.to_string(),
+            m.map_or("?", |m| m.saturation.code()),
+            c.crowding,
+            l.cone_angle
+                .as_ref()
+                .map_or("-".to_string(), |x| format!("{:.0}", x.value)),
+            l.tep
+                .as_ref()
+                .map_or("-".to_string(), |x| format!("{:.0}", x.value)),
+            c.report
+                .unpaired_electrons
+                .first()
+                .map_or("?".to_string(), |u| u.to_string()),
+        );
+        let style = if i == v.row {
+            t.selected(true)
+        } else {
+            t.text()
+        };
+        lines.push(Line::styled(plain(app, &text), style));
+    }
+    f.render_widget(Paragraph::new(plain_lines(app, lines)), inner);
+}

@@ -118,6 +118,7 @@ pub fn render(f: &mut Frame, app: &App, t: &Theme) {
         Mode::Help => help(f, app, area, t),
         Mode::Tree => super::pane_session::render_tree(f, app, area, t),
         Mode::Compare => super::pane_session::render_compare(f, app, area, t),
+        Mode::Screen => super::pane_session::render_screen(f, app, area, t),
         Mode::Line(super::app::LineKind::Bookmark) => {
             super::pane_session::render_tree(f, app, area, t)
         }
@@ -170,6 +171,7 @@ pub fn help_lines(app: &App, t: &Theme) -> Vec<Line<'static>> {
         Context::Formula,
         Context::Tree,
         Context::Compare,
+        Context::Screen,
         Context::Help,
     ] {
         lines.push(Line::styled(ctx.title().to_string(), t.heading()));

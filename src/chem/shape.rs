@@ -95,6 +95,32 @@ pub struct Setup {
     pub dummy: bool,
     /// Metal-donor distance, Å.
     pub distance: f64,
+    /// Atoms of the file not bonded to the donor's ligand (other ligands of a complex).
+    pub left_out: usize,
+    /// The donor's 1-based atom number in the file.
+    pub donor_atom: usize,
+}
+
+/// Which atoms are joined to `start` by bonds (covalent radii, 20% slack), never passing
+/// through atom `barrier`.
+fn bonded_to(atoms: &[Atom], start: usize, barrier: usize) -> Vec<bool> {
+    let mut seen = vec![false; atoms.len()];
+    seen[start] = true;
+    let mut stack = vec![start];
+    while let Some(i) = stack.pop() {
+        let ri = covalent_radius(&atoms[i].symbol);
+        for j in 0..atoms.len() {
+            if seen[j] || j == barrier {
+                continue;
+            }
+            let reach = 1.2 * (ri + covalent_radius(&atoms[j].symbol));
+            if norm(sub(atoms[i].pos, atoms[j].pos)) < reach {
+                seen[j] = true;
+                stack.push(j);
+            }
+        }
+    }
+    seen
 }
 
 /// Find (or place) the metal and the donor. `donor` is a 1-based atom number of the file;
@@ -121,12 +147,6 @@ pub fn setup(atoms: &[Atom], donor: Option<usize>, distance: f64) -> Result<Setu
     match metal_at {
         Some(mi) => {
             let metal = atoms[mi].pos;
-            let ligand: Vec<Atom> = atoms
-                .iter()
-                .enumerate()
-                .filter(|(i, _)| *i != mi)
-                .map(|(_, a)| a.clone())
-                .collect();
             let donor_in_file = match donor {
                 Some(d) => d - 1,
                 None => (0..atoms.len())
@@ -136,11 +156,15 @@ pub fn setup(atoms: &[Atom], donor: Option<usize>, distance: f64) -> Result<Setu
                     })
                     .ok_or("the structure has only the metal")?,
             };
-            let donor = if donor_in_file > mi {
-                donor_in_file - 1
-            } else {
-                donor_in_file
-            };
+            // the ligand is what the donor holds without passing through the metal: other
+            // ligands of a whole complex stay out of every descriptor
+            let keep = bonded_to(atoms, donor_in_file, mi);
+            let ligand: Vec<Atom> = (0..atoms.len())
+                .filter(|&i| keep[i])
+                .map(|i| atoms[i].clone())
+                .collect();
+            let donor = (0..donor_in_file).filter(|&i| keep[i]).count();
+            let left_out = atoms.len() - 1 - ligand.len();
             let distance = norm(sub(ligand[donor].pos, metal));
             Ok(Setup {
                 metal,
@@ -148,6 +172,8 @@ pub fn setup(atoms: &[Atom], donor: Option<usize>, distance: f64) -> Result<Setu
                 atoms: ligand,
                 dummy: false,
                 distance,
+                left_out,
+                donor_atom: donor_in_file + 1,
             })
         }
         None => {
@@ -193,6 +219,8 @@ pub fn setup(atoms: &[Atom], donor: Option<usize>, distance: f64) -> Result<Setu
                 atoms: atoms.to_vec(),
                 dummy: true,
                 distance,
+                left_out: 0,
+                donor_atom: d + 1,
             })
         }
     }

@@ -81,6 +81,9 @@ pub fn run(req: StericsRequest) -> anyhow::Result<Status> {
             "schema": 1,
             "file": shown,
             "donor": donor.symbol,
+            "donor_atom": s.donor_atom,
+            "ligand_atoms": s.atoms.len(),
+            "left_out_atoms": s.left_out,
             "metal": if s.dummy { "placed" } else { "from file" },
             "metal_donor_distance": (s.distance * 1000.0).round() / 1000.0,
             "exact_cone_angle_deg": (cone * 10.0).round() / 10.0,
@@ -98,10 +101,20 @@ pub fn run(req: StericsRequest) -> anyhow::Result<Status> {
         let deg = if req.ascii { " deg" } else { "°" };
         writeln!(
             out,
-            "{shown}: {} atoms, donor {}, metal {metal}",
+            "{shown}: {} atoms, donor {} (atom {}), metal {metal}",
             atoms.len(),
-            donor.symbol
+            donor.symbol,
+            s.donor_atom
         )?;
+        if s.left_out > 0 {
+            writeln!(
+                out,
+                "  ligand: the {} atoms bonded to the donor; {} other atoms (other ligands) left \
+                 out; choose another ligand with --donor N",
+                s.atoms.len(),
+                s.left_out
+            )?;
+        }
         writeln!(
             out,
             "  exact cone angle   {cone:.1}{deg}   (smallest cone from the metal holding every \

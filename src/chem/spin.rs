@@ -372,6 +372,9 @@ fn geometry(input: &SpinInput) -> &'static str {
                 "square planar"
             }
             9 if input.symbol == "Cu" => "square planar",
+            // heavier d7 and d9 centres (Rh(II), Pt(III), Au(II)) are square planar and low
+            // spin like their d8 neighbours (common practice)
+            7 | 9 if !input.first_row => "square planar",
             _ => "tetrahedral",
         },
         5 => "trigonal bipyramidal or square pyramidal",
@@ -419,5 +422,22 @@ mod tests {
         let g = guess(&centre("Fe", 5, 3, 6, 1.0));
         assert!(g.ambiguous);
         assert_eq!(g.unpaired, vec![1, 5]);
+    }
+
+    #[test]
+    fn heavier_four_coordinate_d7_is_planar_low_spin() {
+        // common practice: Rh(II) and Ir(II) monomers are square planar, S = 1/2; a 3d d7
+        // four-coordinate centre (Co(II)) stays tetrahedral, S = 3/2
+        let mut rh = centre("Rh", 7, 2, 4, 1.5);
+        rh.first_row = false;
+        rh.electrons = 15;
+        let g = guess(&rh);
+        assert_eq!(g.geometry, "square planar");
+        assert_eq!(g.unpaired, vec![1]);
+        let mut co = centre("Co", 7, 2, 4, 0.5);
+        co.electrons = 15;
+        let g = guess(&co);
+        assert_eq!(g.geometry, "tetrahedral");
+        assert_eq!(g.unpaired, vec![3]);
     }
 }

@@ -527,7 +527,7 @@ pub static BINDINGS: &[Binding] = &[
         "e",
         Action::ScreenElectrons,
         "electron target: any, 16, 18",
-        "e",
+        "target",
         Context::Screen,
     ),
     b(

@@ -77,7 +77,7 @@ fn sat_word(m: &MetalReport) -> String {
     }
 }
 
-fn signed(f: Frac) -> String {
+pub(crate) fn signed(f: Frac) -> String {
     if f > Frac::ZERO {
         format!("+{f}")
     } else {

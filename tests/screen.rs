@@ -227,6 +227,16 @@ fn the_cli_ranks_and_refuses_bad_requests() {
     assert_eq!(lines.len(), 3);
     assert_eq!(lines[0]["rank"], 1);
     assert!(lines[0]["ligands"].is_array() && lines[0]["product"].is_string());
+    // the text table writes oxidation states signed, as chemists do (Ir(I): +1)
+    let text = nonet(&["screen", "IrCl(CO)(PPh3)2", "--site", "PPh3", "--top", "1"]);
+    let row = String::from_utf8_lossy(&text.stdout)
+        .lines()
+        .nth(1)
+        .map(String::from);
+    assert!(
+        row.as_deref().is_some_and(|r| r.contains(" +1 ")),
+        "{row:?}"
+    );
     for bad in [
         vec!["screen", "IrCl(CO)(PPh3)2", "--site", "PMe3"],
         vec![

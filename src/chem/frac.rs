@@ -240,6 +240,17 @@ impl std::iter::Sum for Frac {
     }
 }
 
+impl Frac {
+    /// As printed, with a + on positive values: how oxidation states and changes are written.
+    pub fn signed(self) -> String {
+        if self > Frac::ZERO {
+            format!("+{self}")
+        } else {
+            self.to_string()
+        }
+    }
+}
+
 /// Whole numbers print as integers, others with up to two decimals ("17.5", "14.33").
 impl std::fmt::Display for Frac {
     fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {

@@ -196,7 +196,7 @@ pub fn run(req: ScreenRequest) -> anyhow::Result<Status> {
                 i + 1,
                 keys.join(" + "),
                 c.electrons.to_string(),
-                c.oxidation_state.to_string(),
+                c.oxidation_state.signed(),
                 c.d_electrons.to_string(),
                 saturation,
                 c.crowding,

@@ -18,14 +18,6 @@ fn greek(s: &str, ascii: bool) -> String {
     }
 }
 
-fn signed(f: Frac) -> String {
-    if f > Frac::ZERO {
-        format!("+{f}")
-    } else {
-        f.to_string()
-    }
-}
-
 /// The readable report; with `ascii` every character is plain ASCII.
 pub fn write_report(out: &mut impl Write, input: &str, r: &Report, ascii: bool) -> io::Result<()> {
     if ascii {
@@ -143,7 +135,7 @@ fn write_metal(
         m.symbol,
         m.electron_count,
         status,
-        signed(m.oxidation_state),
+        m.oxidation_state.signed(),
         m.d_electrons
     )?;
     writeln!(
@@ -304,8 +296,8 @@ pub fn write_step(
         o.step,
         a.electron_count,
         b.electron_count,
-        signed(a.oxidation_state),
-        signed(b.oxidation_state),
+        a.oxidation_state.signed(),
+        b.oxidation_state.signed(),
         a.d_electrons,
         b.d_electrons,
         a.coordination_number,

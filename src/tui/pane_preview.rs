@@ -14,7 +14,6 @@ use crate::chem::count::{MetalReport, Saturation};
 use crate::chem::preview::Preview;
 use crate::chem::spin::spin_only_moment;
 use crate::chem::sterics::{CROWDED, OVERFULL};
-use crate::chem::Frac;
 
 pub fn title(app: &App) -> &'static str {
     match &app.pending {
@@ -77,14 +76,6 @@ fn sat_word(m: &MetalReport) -> String {
     }
 }
 
-pub(crate) fn signed(f: Frac) -> String {
-    if f > Frac::ZERO {
-        format!("+{f}")
-    } else {
-        f.to_string()
-    }
-}
-
 fn lines<'a>(app: &App, p: &Preview, t: &Theme) -> Vec<Line<'a>> {
     let mut out = Vec::new();
     let what = match &p.change {
@@ -120,7 +111,7 @@ fn lines<'a>(app: &App, p: &Preview, t: &Theme) -> Vec<Line<'a>> {
         "ox. state",
         format!(
             "{} · {} · {} · open sites {}",
-            arrow(signed(a.oxidation_state), signed(b.oxidation_state)),
+            arrow(a.oxidation_state.signed(), b.oxidation_state.signed()),
             arrow(format!("d{}", a.d_electrons), format!("d{}", b.d_electrons)),
             arrow(sat_word(a), sat_word(b)),
             arrow(a.open_sites, b.open_sites)

@@ -205,7 +205,7 @@ pub fn render_screen(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
             i + 1,
             l.key,
             c.electrons.to_string(),
-            super::pane_preview::signed(c.oxidation_state),
+            c.oxidation_state.signed(),
             c.d_electrons.to_string(),
             m.map_or("?", |m| m.saturation.code()),
             c.crowding,

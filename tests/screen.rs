@@ -265,9 +265,87 @@ fn the_cli_ranks_and_refuses_bad_requests() {
         ],
         vec!["screen", "IrCl(CO)(PPh3)2", "--site", "CO", "--site", "CO"],
         vec!["screen", "Mn2(CO)10", "--site", "CO"],
+        // reversed or empty windows and limits are mistakes, not empty answers
+        vec![
+            "screen",
+            "IrCl(CO)(PPh3)2",
+            "--site",
+            "CO",
+            "--electrons",
+            "30-10",
+        ],
+        vec![
+            "screen",
+            "IrCl(CO)(PPh3)2",
+            "--site",
+            "CO",
+            "--cone",
+            "200-100",
+        ],
+        vec![
+            "screen",
+            "IrCl(CO)(PPh3)2",
+            "--site",
+            "CO",
+            "--tep",
+            "NaN-NaN",
+        ],
+        vec![
+            "screen",
+            "IrCl(CO)(PPh3)2",
+            "--site",
+            "CO",
+            "--max-crowding",
+            "-1",
+        ],
+        vec!["screen", "IrCl(CO)(PPh3)2", "--site", "CO", "--top", "0"],
     ] {
         let out = nonet(&bad);
         assert_eq!(out.status.code(), Some(2), "{bad:?}");
         assert!(!out.stderr.is_empty());
     }
+}
+
+#[test]
+fn like_for_like_comes_first_and_no_swap_is_not_a_candidate() {
+    // no --electrons: the starting count (Cp2ZrCl2, 16 e) is the target, so Cp* outranks
+    // 17- and 18-e products; Cp itself is never offered back; the site may be written with
+    // its hapticity as the output prints it
+    let out = nonet(&[
+        "screen", "Cp2ZrCl2", "--site", "η5-Cp", "--top", "5", "--json",
+    ]);
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    let lines: Vec<serde_json::Value> = String::from_utf8_lossy(&out.stdout)
+        .lines()
+        .map(|l| serde_json::from_str(l).expect("json"))
+        .collect();
+    assert!(!lines.is_empty());
+    assert!(lines.iter().all(|l| l["electron_count"] == 16), "{lines:?}");
+    assert!(lines.iter().all(|l| l["ligands"][0] != "Cp"));
+    assert!(lines.iter().any(|l| l["ligands"][0] == "Cp*"));
+    assert!(lines.iter().all(|l| l["hazards_on_record"].is_boolean()));
+    // a window ranks every count inside it alike
+    let out = nonet(&[
+        "screen",
+        "trans-RhCl(CO)(PPh3)2",
+        "--site",
+        "PPh3",
+        "--electrons",
+        "16-18",
+        "--top",
+        "3",
+        "--json",
+    ]);
+    let first: serde_json::Value = serde_json::from_str(
+        String::from_utf8_lossy(&out.stdout)
+            .lines()
+            .next()
+            .unwrap_or("{}"),
+    )
+    .expect("json");
+    assert_eq!(first["electron_count"], 16, "{first}");
 }

@@ -36,14 +36,16 @@ pub struct Constraints {
     /// Families to keep (empty: all).
     pub families: Vec<String>,
     pub exclude_families: Vec<String>,
-    /// Leave out ligands whose free form carries GHS hazard statements.
+    /// Leave out ligands whose free form carries GHS hazard statements in the catalogue.
+    /// Ligands with no hazard record stay in; the CLI flags them, since unknown is not safe.
     pub no_hazardous: bool,
 }
 
 /// How candidates are ordered, best first.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Rank {
-    /// Nearest the electron target (or 18), then least crowded, then strongest donor.
+    /// Nearest the electron window (or the starting count: like for like first), then least
+    /// crowded, then strongest donor.
     Electrons,
     /// Least crowded first.
     Crowding,
@@ -220,17 +222,29 @@ pub fn screen(
     let base_e = m.electron_count;
     let base_os = m.oxidation_state;
     let valence = m.valence_electrons as i64;
-    let target = constraints
+    // distance from the wanted counts: the window, or else the count the complex has now
+    let (want_lo, want_hi) = constraints
         .electrons
-        .map_or(m.target as f64, |(lo, hi)| (lo + hi) as f64 / 2.0);
+        .map_or((base_e.to_f64(), base_e.to_f64()), |(lo, hi)| {
+            (lo as f64, hi as f64)
+        });
+    let off_target = |e: f64| (want_lo - e).max(e - want_hi).max(0.0);
 
     let pool: Vec<usize> = (0..ligands.len())
         .filter(|&i| passes_ligand(&ligands[i], constraints))
         .collect();
     let t: Vec<Terms> = ligands.iter().map(|l| terms(l, 0)).collect();
+    // the catalogue entries of the leaving ligands: putting them all back is no swap
+    let same: Vec<Option<usize>> = leaving
+        .iter()
+        .map(|b| ligands.iter().position(|l| l.key == b.ligand.key))
+        .collect();
 
     // the numbers of one candidate, before any full count
     let judge = |chosen: &[usize]| -> Option<(Frac, Frac, f64, f64)> {
+        if chosen.iter().zip(&same).all(|(&i, s)| Some(i) == *s) {
+            return None;
+        }
         let mut e = base_e;
         let mut os = base_os;
         let mut crowd = base_crowd;
@@ -271,7 +285,7 @@ pub fn screen(
             .sum();
         let score = match rank {
             Rank::Electrons => {
-                (e.to_f64() - target).abs() * 1000.0
+                off_target(e.to_f64()) * 1000.0
                     + (crowd + unknown_penalty) * 10.0
                     + (donor - 2000.0) / 1000.0
             }

@@ -156,16 +156,19 @@ pub enum Command {
         /// Leave out this family (repeatable).
         #[arg(long = "exclude-family", value_name = "FAMILY")]
         exclude_families: Vec<String>,
-        /// Leave out ligands with GHS hazard statements.
+        /// Leave out ligands with GHS hazard statements in the catalogue; ligands with no
+        /// hazard record stay in and are flagged.
         #[arg(long)]
         no_hazardous: bool,
-        /// electrons (nearest the target), crowding, donor (lowest TEP) or cone.
+        /// electrons (nearest --electrons, else the starting count), crowding, donor (lowest
+        /// TEP) or cone.
         #[arg(long, default_value = "electrons", value_name = "KEY")]
         rank: String,
         /// How many candidates to show.
         #[arg(long, default_value_t = 20, value_name = "N")]
         top: usize,
-        /// Run part K of N of the screen (for array jobs); outputs merge by concatenation.
+        /// Run part K of N of the screen (for array jobs); outputs merge by concatenation
+        /// (ranks are per shard: sort merged JSON lines by "score").
         #[arg(long, value_name = "K/N")]
         shard: Option<String>,
         /// One JSON object per candidate per line.

@@ -27,15 +27,17 @@ pub struct ScreenRequest {
     pub json: bool,
 }
 
-/// "16" or "16-18" as an inclusive range.
-fn range<T: std::str::FromStr + Copy>(text: &str) -> Option<(T, T)> {
-    match text.split_once('-') {
-        Some((a, b)) => Some((a.trim().parse().ok()?, b.trim().parse().ok()?)),
+/// "16" or "16-18" as an inclusive range, low end first; NaN is no number.
+fn range<T: std::str::FromStr + Copy + PartialOrd>(text: &str) -> Option<(T, T)> {
+    let (lo, hi) = match text.split_once('-') {
+        Some((a, b)) => (a.trim().parse().ok()?, b.trim().parse().ok()?),
         None => {
             let v = text.trim().parse().ok()?;
-            Some((v, v))
+            (v, v)
         }
-    }
+    };
+    // `lo <= hi` is false for NaN too
+    (lo <= hi).then_some((lo, hi))
 }
 
 fn reject(msg: String) -> anyhow::Result<Status> {
@@ -61,19 +63,31 @@ pub fn run(req: ScreenRequest) -> anyhow::Result<Status> {
     if let Some(e) = &req.electrons {
         match range::<i64>(e) {
             Some(r) => constraints.electrons = Some(r),
-            None => return reject(format!("--electrons takes N or LO-HI, not '{e}'")),
+            None => {
+                return reject(format!(
+                    "--electrons takes N or LO-HI with LO <= HI (e.g. 16-18), not '{e}'"
+                ))
+            }
         }
     }
     if let Some(c) = &req.cone {
         match range::<f64>(c) {
             Some(r) => constraints.cone = Some(r),
-            None => return reject(format!("--cone takes LO-HI in degrees, not '{c}'")),
+            None => {
+                return reject(format!(
+                    "--cone takes LO-HI in degrees with LO <= HI (e.g. 120-160), not '{c}'"
+                ))
+            }
         }
     }
     if let Some(t) = &req.tep {
         match range::<f64>(t) {
             Some(r) => constraints.tep = Some(r),
-            None => return reject(format!("--tep takes LO-HI in cm-1, not '{t}'")),
+            None => {
+                return reject(format!(
+                    "--tep takes LO-HI in cm-1 with LO <= HI (e.g. 2050-2070), not '{t}'"
+                ))
+            }
         }
     }
     for f in constraints
@@ -87,6 +101,16 @@ pub fn run(req: ScreenRequest) -> anyhow::Result<Status> {
                 crate::catalogue::FAMILIES.join(", ")
             ));
         }
+    }
+    if let Some(m) = req.max_crowding {
+        if !(m.is_finite() && m > 0.0) {
+            return reject(format!(
+                "--max-crowding takes a positive number (1.15 crowded, 1.35 overfull), not {m}"
+            ));
+        }
+    }
+    if req.top == 0 {
+        return reject("--top takes at least 1".into());
     }
     let rank = match req.rank.as_str() {
         "electrons" => Rank::Electrons,
@@ -108,16 +132,37 @@ pub fn run(req: ScreenRequest) -> anyhow::Result<Status> {
     };
     // sites: the slots of the named ligands; the same name twice means two units of it
     let mut slots = Vec::new();
+    let present: Vec<String> = complex
+        .slots()
+        .into_iter()
+        .filter_map(|s| complex.group(s).map(|b| b.ligand.key.clone()))
+        .collect();
     for name in &req.sites {
-        let Some(l) = crate::chem::LigandLookup::exact(&cat, name) else {
-            return reject(format!("unknown ligand '{name}' for --site"));
+        // a mode or bridge prefix as the complex is printed (η5-Cp, κ2-acac, μ-Cl) names the
+        // same ligand
+        let bare = name
+            .split_once('-')
+            .filter(|(p, _)| p.starts_with(['η', 'κ', 'μ', 'h', 'k', 'm']) && p.len() <= 4)
+            .map_or(name.as_str(), |(_, rest)| rest);
+        let Some(l) = crate::chem::LigandLookup::exact(&cat, name)
+            .or_else(|| crate::chem::LigandLookup::exact(&cat, bare))
+        else {
+            return reject(format!(
+                "unknown ligand '{name}' for --site; this complex has: {}",
+                present.join(", ")
+            ));
         };
         let Some(slot) = complex
             .slots()
             .into_iter()
             .find(|s| complex.group(*s).is_some_and(|b| b.ligand.key == l.key))
         else {
-            return reject(format!("{} has no {} to replace", req.formula, l.key));
+            return reject(format!(
+                "{} has no {} to replace; it has: {}",
+                req.formula,
+                l.key,
+                present.join(", ")
+            ));
         };
         let units = complex.group(slot).map_or(0, |b| b.count);
         let wanted = slots.iter().filter(|s| **s == slot).count() as u32 + 1;
@@ -148,6 +193,7 @@ pub fn run(req: ScreenRequest) -> anyhow::Result<Status> {
             "rank", "entering", "e", "OS", "d", "saturation", "crowd", "cone", "TEP", "unp"
         )?;
     }
+    let mut no_record = std::collections::BTreeSet::new();
     for (i, c) in found.iter().enumerate() {
         let keys: Vec<&str> = c.ligands.iter().map(|l| l.key.as_str()).collect();
         let cones: Vec<Option<f64>> = c
@@ -163,6 +209,13 @@ pub fn run(req: ScreenRequest) -> anyhow::Result<Status> {
         let m = c.report.metals.first();
         let saturation = m.map_or("?", |m| m.saturation.code());
         let unpaired = c.report.unpaired_electrons.first().copied();
+        let unrecorded: Vec<&str> = c
+            .ligands
+            .iter()
+            .filter(|l| l.hazards.is_empty() && l.hazard_source.is_none())
+            .map(|l| l.key.as_str())
+            .collect();
+        no_record.extend(unrecorded.iter().map(|k| k.to_string()));
         if req.json {
             let line = json!({
                 "schema": 1,
@@ -180,6 +233,7 @@ pub fn run(req: ScreenRequest) -> anyhow::Result<Status> {
                 "unpaired_electrons": unpaired,
                 "score": c.score,
                 "product": c.report.formula,
+                "hazards_on_record": unrecorded.is_empty(),
             });
             serde_json::to_writer(&mut out, &line)?;
             writeln!(out)?;
@@ -209,6 +263,13 @@ pub fn run(req: ScreenRequest) -> anyhow::Result<Status> {
     }
     if found.is_empty() {
         eprintln!("no candidate meets the constraints");
+    }
+    if req.no_hazardous && !no_record.is_empty() && !req.json {
+        eprintln!(
+            "note: no hazard record in the catalogue for {}; unknown is not safe: consult the \
+             supplier's safety data sheet",
+            no_record.into_iter().collect::<Vec<_>>().join(", ")
+        );
     }
     out.flush()?;
     Ok(Status::Ok)

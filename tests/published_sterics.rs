@@ -93,3 +93,31 @@ fn the_cli_names_the_ligand_it_measured() {
     assert!(text.contains("donor C (atom 2)"), "{text}");
     assert!(text.contains("56 other atoms"), "{text}");
 }
+
+#[test]
+fn quadrants_do_not_depend_on_how_the_file_is_turned() {
+    let file = Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/data/bilbrey2013/PdPPh3.xyz");
+    let text = std::fs::read_to_string(&file).expect("test data");
+    let atoms = structure::parse(&text).expect("parses");
+    let quadrants = |atoms: &[structure::Atom]| {
+        let s = setup(atoms, None, 2.28).expect("setup");
+        buried_volume(&s, 3.5, 1.17, true, 21).quadrants
+    };
+    let (c, sn) = (0.7f64.cos(), 0.7f64.sin());
+    let turned: Vec<structure::Atom> = atoms
+        .iter()
+        .map(|a| structure::Atom {
+            symbol: a.symbol.clone(),
+            pos: [
+                c * a.pos[0] - sn * a.pos[1] + 3.0,
+                sn * a.pos[0] + c * a.pos[1],
+                a.pos[2] - 1.0,
+            ],
+        })
+        .collect();
+    let (a, b) = (quadrants(&atoms), quadrants(&turned));
+    for k in 0..4 {
+        // the 0.1 Å grid moves with the frame: allow half a point
+        assert!((a[k] - b[k]).abs() < 0.5, "{a:?} vs {b:?}");
+    }
+}

@@ -117,3 +117,157 @@ fn a_stored_ligand_is_counted_at_once() {
         .as_str()
         .is_some_and(|s| s.contains("computed by nonet")));
 }
+
+#[test]
+fn a_bad_store_request_writes_nothing() {
+    let d = dir("refuse");
+    let f = ph3(&d);
+    let set = d.join("config").join("ligand_sets").join("mine.toml");
+    let store = |key: &str, extra: &[&str]| {
+        let mut args = vec![
+            "sterics",
+            f.to_str().unwrap(),
+            "--donor",
+            "1",
+            "--add-to",
+            "mine",
+            "--key",
+            key,
+        ];
+        args.extend_from_slice(extra);
+        nonet(&d, &args)
+    };
+    // a built-in key would silently change every count that uses it (Me as an L ligand)
+    for (key, extra) in [
+        ("Me", &[][..]),
+        ("PPh3", &[][..]),
+        ("x)", &[][..]),
+        ("a b", &[][..]),
+        ("Q3", &["--family", "made up"][..]),
+        ("Q3", &["--class", "Y"][..]),
+    ] {
+        let out = store(key, extra);
+        assert_eq!(out.status.code(), Some(2), "{key} {extra:?}");
+        assert!(out.stdout.is_empty(), "refused before any output");
+        assert!(!set.exists(), "{key} {extra:?}: nothing written");
+    }
+    assert_eq!(
+        nonet(
+            &d,
+            &["sterics", f.to_str().unwrap(), "--donor", "1", "--key", "K"]
+        )
+        .status
+        .code(),
+        Some(2),
+        "--key without --add-to"
+    );
+    // once stored, the same key is refused the second time
+    assert!(store("PH3calc", &[]).status.success());
+    let before = std::fs::read(&set).expect("set");
+    assert_eq!(store("PH3calc", &[]).status.code(), Some(2));
+    assert_eq!(std::fs::read(&set).expect("set"), before);
+}
+
+#[test]
+fn the_source_note_gives_the_distance_used() {
+    let d = dir("source");
+    let f = Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/data/bilbrey2013/NiPMe3.xyz");
+    let out = nonet(
+        &d,
+        &[
+            "sterics",
+            f.to_str().unwrap(),
+            "--add-to",
+            "mine",
+            "--key",
+            "PMe3ni",
+        ],
+    );
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    let set = std::fs::read_to_string(d.join("config").join("ligand_sets").join("mine.toml"))
+        .expect("set");
+    // the Ni-P distance of the file, not the 2.28 Å default
+    assert!(set.contains("from the file, 2.04 Å"), "{set}");
+}
+
+#[test]
+fn malformed_files_are_explained() {
+    let d = dir("malformed");
+    let write = |name: &str, body: &[u8]| {
+        let p = d.join(name);
+        std::fs::write(&p, body).expect("write");
+        p
+    };
+    let cases: Vec<(PathBuf, &str)> = vec![
+        (write("empty.xyz", b""), "empty"),
+        (
+            write("junk.bin", &[0xff, 0xfe, 0x00, 0x81, 0x12]),
+            "not a text file",
+        ),
+        (
+            write("alien.xyz", b"2\nx\nP 0 0 0\nXx 1.4 0 0\n"),
+            "'Xx' is not an element symbol",
+        ),
+        (
+            write("short.xyz", b"1\nx\nP 0 0 0\nH 1.4 0 0\n"),
+            "more atom lines follow",
+        ),
+    ];
+    for (p, want) in cases {
+        let out = nonet(&d, &["sterics", p.to_str().unwrap(), "--donor", "1"]);
+        let err = String::from_utf8_lossy(&out.stderr);
+        assert_eq!(out.status.code(), Some(2), "{}: {err}", p.display());
+        assert!(err.contains(want), "{}: {err}", p.display());
+    }
+    // a molfile whose title is a database number is still a molfile
+    let mol = "2244\n  test\n\n  2  1  0  0  0  0  0  0  0  0999 V2000\n    0.0000    0.0000    0.0000 P   0  0\n    1.4200    0.0000    0.0000 H   0  0\n  1  2  1  0\nM  END\n";
+    let p = write("cid.mol", mol.as_bytes());
+    let out = nonet(
+        &d,
+        &["sterics", p.to_str().unwrap(), "--donor", "1", "--json"],
+    );
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+}
+
+#[test]
+fn a_donor_far_from_the_metal_is_not_bonded_to_it() {
+    let d = dir("far");
+    // PH3 with an iron atom 6 Å away on the far side: no bond, so without --donor it is an
+    // error, and with --donor the metal is placed along the lone pair
+    let b = (((93.3f64).to_radians().cos() + 0.5) / 1.5).sqrt().acos();
+    let mut text = String::from("5\nfar metal\nFe 0 0 6\nP 0 0 0\n");
+    for k in 0..3 {
+        let p = k as f64 * 2.0 * std::f64::consts::PI / 3.0;
+        text.push_str(&format!(
+            "H {:.4} {:.4} {:.4}\n",
+            1.42 * b.sin() * p.cos(),
+            1.42 * b.sin() * p.sin(),
+            1.42 * b.cos()
+        ));
+    }
+    let f = d.join("far.xyz");
+    std::fs::write(&f, text).expect("write");
+    let out = nonet(&d, &["sterics", f.to_str().unwrap()]);
+    assert_eq!(out.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&out.stderr).contains("too far to be bonded"));
+    let out = nonet(
+        &d,
+        &["sterics", f.to_str().unwrap(), "--donor", "2", "--json"],
+    );
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    let v: serde_json::Value = serde_json::from_slice(&out.stdout).expect("json");
+    assert_eq!(v["metal"], "placed");
+    assert_eq!(v["donor_atom"], 2);
+}

@@ -123,107 +123,127 @@ fn bonded_to(atoms: &[Atom], start: usize, barrier: usize) -> Vec<bool> {
     seen
 }
 
-/// Find (or place) the metal and the donor. `donor` is a 1-based atom number of the file;
-/// without it the atom nearest the metal is the donor. With no metal in the file a dummy metal
-/// goes `distance` Å from the donor along its lone pair (opposite the mean of its bonds).
+/// Farthest a donor may sit from the metal in the file and still be bonded to it, Å (the
+/// longest common M-L bonds, to heavy donors, are near 2.9 Å; common practice).
+const BONDED: f64 = 3.2;
+
+/// Find (or place) the metal and the donor. `donor` is a 1-based atom number of the file.
+///
+/// With `--donor`: the metal nearest the donor is used if it is bonded to it; otherwise the
+/// ligand is free (it may hold a metal of its own, as a ferrocenylphosphine does) and a dummy
+/// metal goes `distance` Å from the donor along its lone pair (opposite the mean of its
+/// bonds). Without it, the first metal of the file binds the atom nearest to it. Only the
+/// atoms bonded to the donor, not through the metal, form the ligand.
 pub fn setup(atoms: &[Atom], donor: Option<usize>, distance: f64) -> Result<Setup, String> {
     if atoms.is_empty() {
         return Err("the structure has no atoms".into());
     }
-    let metal_at = atoms
-        .iter()
-        .position(|a| element::by_symbol(&a.symbol).is_some());
-    if let Some(d) = donor {
-        if d == 0 || d > atoms.len() {
-            return Err(format!(
-                "--donor {d}: the file has atoms 1 to {}",
-                atoms.len()
-            ));
-        }
-        if Some(d - 1) == metal_at {
-            return Err(format!("--donor {d} is the metal itself"));
-        }
-    }
-    match metal_at {
-        Some(mi) => {
-            let metal = atoms[mi].pos;
-            let donor_in_file = match donor {
-                Some(d) => d - 1,
-                None => (0..atoms.len())
-                    .filter(|&i| i != mi)
-                    .min_by(|&a, &b| {
-                        norm(sub(atoms[a].pos, metal)).total_cmp(&norm(sub(atoms[b].pos, metal)))
-                    })
-                    .ok_or("the structure has only the metal")?,
-            };
-            // the ligand is what the donor holds without passing through the metal: other
-            // ligands of a whole complex stay out of every descriptor
-            let keep = bonded_to(atoms, donor_in_file, mi);
-            let ligand: Vec<Atom> = (0..atoms.len())
-                .filter(|&i| keep[i])
-                .map(|i| atoms[i].clone())
-                .collect();
-            let donor = (0..donor_in_file).filter(|&i| keep[i]).count();
-            let left_out = atoms.len() - 1 - ligand.len();
-            let distance = norm(sub(ligand[donor].pos, metal));
-            Ok(Setup {
-                metal,
-                donor,
-                atoms: ligand,
-                dummy: false,
-                distance,
-                left_out,
-                donor_atom: donor_in_file + 1,
-            })
+    let metals: Vec<usize> = (0..atoms.len())
+        .filter(|&i| element::by_symbol(&atoms[i].symbol).is_some())
+        .collect();
+    let far = |i: usize, j: usize| norm(sub(atoms[i].pos, atoms[j].pos));
+    let (d, metal_at) = match donor {
+        Some(d) => {
+            if d == 0 || d > atoms.len() {
+                return Err(format!(
+                    "--donor {d}: the file has atoms 1 to {}",
+                    atoms.len()
+                ));
+            }
+            let d = d - 1;
+            if metals.contains(&d) {
+                return Err(format!(
+                    "--donor {} is a metal ({}); give the ligand atom bonded to it",
+                    d + 1,
+                    atoms[d].symbol
+                ));
+            }
+            let nearest = metals
+                .iter()
+                .copied()
+                .min_by(|&a, &b| far(a, d).total_cmp(&far(b, d)));
+            (d, nearest.filter(|&m| far(m, d) <= BONDED))
         }
         None => {
-            let d = match donor {
-                Some(d) => d - 1,
-                None => {
-                    return Err("no metal in the file: say which atom binds with --donor N".into())
-                }
+            let Some(&m) = metals.first() else {
+                return Err("no metal in the file: say which atom binds with --donor N".into());
             };
-            let p = atoms[d].pos;
-            let rd = covalent_radius(&atoms[d].symbol);
-            let bonds: Vec<[f64; 3]> = atoms
-                .iter()
-                .enumerate()
-                .filter(|(i, a)| {
-                    *i != d && norm(sub(a.pos, p)) < 1.2 * (rd + covalent_radius(&a.symbol))
-                })
-                .map(|(_, a)| unit(sub(a.pos, p)))
-                .collect();
-            if bonds.is_empty() {
+            let d = (0..atoms.len())
+                .filter(|&i| i != m)
+                .min_by(|&a, &b| far(a, m).total_cmp(&far(b, m)))
+                .ok_or("the structure has only the metal")?;
+            if far(d, m) > BONDED {
                 return Err(format!(
-                    "atom {} has no bonded neighbours to point its lone pair away from",
-                    d + 1
+                    "the atom nearest the {} (atom {}, {}) is {:.2} Å away, too far to be \
+                     bonded; say which atom binds with --donor N",
+                    atoms[m].symbol,
+                    d + 1,
+                    atoms[d].symbol,
+                    far(d, m)
                 ));
             }
-            let mean = bonds
-                .iter()
-                .fold([0.0; 3], |s, b| [s[0] + b[0], s[1] + b[1], s[2] + b[2]]);
-            if norm(mean) < 1e-6 {
-                return Err(format!(
-                    "atom {}'s bonds cancel out: its lone pair has no direction",
-                    d + 1
-                ));
-            }
-            let lone_pair = scale(unit(mean), -1.0);
-            Ok(Setup {
-                metal: [
-                    p[0] + lone_pair[0] * distance,
-                    p[1] + lone_pair[1] * distance,
-                    p[2] + lone_pair[2] * distance,
-                ],
-                donor: d,
-                atoms: atoms.to_vec(),
-                dummy: true,
-                distance,
-                left_out: 0,
-                donor_atom: d + 1,
-            })
+            (d, Some(m))
         }
+    };
+    // the ligand is what the donor holds without passing through the metal: other ligands of
+    // a whole complex stay out of every descriptor
+    let keep = bonded_to(atoms, d, metal_at.unwrap_or(usize::MAX));
+    let ligand: Vec<Atom> = (0..atoms.len())
+        .filter(|&i| keep[i])
+        .map(|i| atoms[i].clone())
+        .collect();
+    let donor_in_ligand = (0..d).filter(|&i| keep[i]).count();
+    let left_out = atoms.len() - ligand.len() - usize::from(metal_at.is_some());
+    if let Some(m) = metal_at {
+        return Ok(Setup {
+            metal: atoms[m].pos,
+            donor: donor_in_ligand,
+            distance: far(d, m),
+            atoms: ligand,
+            dummy: false,
+            left_out,
+            donor_atom: d + 1,
+        });
     }
+    let p = atoms[d].pos;
+    let rd = covalent_radius(&atoms[d].symbol);
+    let bonds: Vec<[f64; 3]> = ligand
+        .iter()
+        .enumerate()
+        .filter(|(i, a)| {
+            *i != donor_in_ligand && norm(sub(a.pos, p)) < 1.2 * (rd + covalent_radius(&a.symbol))
+        })
+        .map(|(_, a)| unit(sub(a.pos, p)))
+        .collect();
+    if bonds.is_empty() {
+        return Err(format!(
+            "atom {} has no bonded neighbours to point its lone pair away from",
+            d + 1
+        ));
+    }
+    let mean = bonds
+        .iter()
+        .fold([0.0; 3], |s, b| [s[0] + b[0], s[1] + b[1], s[2] + b[2]]);
+    if norm(mean) < 1e-6 {
+        return Err(format!(
+            "atom {}'s bonds cancel out: its lone pair has no direction",
+            d + 1
+        ));
+    }
+    let lone_pair = scale(unit(mean), -1.0);
+    Ok(Setup {
+        metal: [
+            p[0] + lone_pair[0] * distance,
+            p[1] + lone_pair[1] * distance,
+            p[2] + lone_pair[2] * distance,
+        ],
+        donor: donor_in_ligand,
+        atoms: ligand,
+        dummy: true,
+        distance,
+        left_out,
+        donor_atom: d + 1,
+    })
 }
 
 /// Each atom's direction from the metal and the half-angle its sphere fills. The donor atom
@@ -240,8 +260,9 @@ fn cones(s: &Setup, radius: &dyn Fn(&str) -> f64) -> Result<Vec<([f64; 3], f64)>
             let r = radius(&a.symbol);
             if d <= r {
                 return Err(format!(
-                    "the metal lies inside the {} atom's van der Waals sphere",
-                    a.symbol
+                    "the metal lies inside the van der Waals sphere of a {} atom {:.2} Å away: \
+                     is the donor (atom {}) the atom that binds? Choose it with --donor N",
+                    a.symbol, d, s.donor_atom
                 ));
             }
             Ok((unit(v), (r / d).asin()))
@@ -369,6 +390,35 @@ pub struct Buried {
     pub map: Vec<Vec<Option<f64>>>,
 }
 
+/// The map's +x axis: toward the first atom bonded to the donor (in file order), seen down the
+/// metal-donor axis `z`, so quadrants do not depend on how the file is oriented.
+fn frame_x(s: &Setup, z: [f64; 3]) -> [f64; 3] {
+    let p = s.atoms[s.donor].pos;
+    let rd = covalent_radius(&s.atoms[s.donor].symbol);
+    s.atoms
+        .iter()
+        .enumerate()
+        .filter(|(i, a)| {
+            *i != s.donor && norm(sub(a.pos, p)) < 1.2 * (rd + covalent_radius(&a.symbol))
+        })
+        .map(|(_, a)| {
+            let v = sub(a.pos, p);
+            sub(v, scale(z, dot(v, z)))
+        })
+        .find(|v| norm(*v) > 0.1)
+        .map_or_else(
+            || {
+                let helper = if z[0].abs() < 0.9 {
+                    [1.0, 0.0, 0.0]
+                } else {
+                    [0.0, 1.0, 0.0]
+                };
+                unit(cross(helper, z))
+            },
+            unit,
+        )
+}
+
 /// %Vbur in a sphere of `radius` Å around the metal, atoms at `scale` times their Bondi radius,
 /// hydrogens included or not; grid spacing 0.1 Å.
 pub fn buried_volume(
@@ -379,12 +429,7 @@ pub fn buried_volume(
     map_size: usize,
 ) -> Buried {
     let z = unit(sub(s.atoms[s.donor].pos, s.metal));
-    let helper = if z[0].abs() < 0.9 {
-        [1.0, 0.0, 0.0]
-    } else {
-        [0.0, 1.0, 0.0]
-    };
-    let x = unit(cross(helper, z));
+    let x = frame_x(s, z);
     let y = cross(z, x);
     let spheres: Vec<([f64; 3], f64)> = s
         .atoms

@@ -31,7 +31,20 @@ fn err<T>(line: usize, message: impl Into<String>) -> Result<T, StructureError> 
     })
 }
 
-/// Normalise an element symbol ("CL" -> "Cl") and check it looks like one.
+/// The elements of the periodic table (IUPAC), H to Og.
+const ELEMENTS: [&str; 118] = [
+    "H", "He", "Li", "Be", "B", "C", "N", "O", "F", "Ne", "Na", "Mg", "Al", "Si", "P", "S", "Cl",
+    "Ar", "K", "Ca", "Sc", "Ti", "V", "Cr", "Mn", "Fe", "Co", "Ni", "Cu", "Zn", "Ga", "Ge", "As",
+    "Se", "Br", "Kr", "Rb", "Sr", "Y", "Zr", "Nb", "Mo", "Tc", "Ru", "Rh", "Pd", "Ag", "Cd", "In",
+    "Sn", "Sb", "Te", "I", "Xe", "Cs", "Ba", "La", "Ce", "Pr", "Nd", "Pm", "Sm", "Eu", "Gd", "Tb",
+    "Dy", "Ho", "Er", "Tm", "Yb", "Lu", "Hf", "Ta", "W", "Re", "Os", "Ir", "Pt", "Au", "Hg", "Tl",
+    "Pb", "Bi", "Po", "At", "Rn", "Fr", "Ra", "Ac", "Th", "Pa", "U", "Np", "Pu", "Am", "Cm", "Bk",
+    "Cf", "Es", "Fm", "Md", "No", "Lr", "Rf", "Db", "Sg", "Bh", "Hs", "Mt", "Ds", "Rg", "Cn", "Nh",
+    "Fl", "Mc", "Lv", "Ts", "Og",
+];
+
+/// Normalise an element symbol ("CL" -> "Cl", "C12" -> "C") and check it is one; deuterium
+/// reads as hydrogen.
 fn symbol(raw: &str, line: usize) -> Result<String, StructureError> {
     let t = raw.trim();
     let letters: String = t.chars().take_while(|c| c.is_ascii_alphabetic()).collect();
@@ -40,6 +53,12 @@ fn symbol(raw: &str, line: usize) -> Result<String, StructureError> {
     }
     let mut s = letters[..1].to_ascii_uppercase();
     s.push_str(&letters[1..].to_ascii_lowercase());
+    if s == "D" {
+        return Ok("H".into());
+    }
+    if !ELEMENTS.contains(&s.as_str()) {
+        return err(line, format!("'{t}' is not an element symbol"));
+    }
     Ok(s)
 }
 
@@ -76,6 +95,24 @@ pub fn parse_xyz(text: &str) -> Result<Vec<Atom>, StructureError> {
                 lines.len().saturating_sub(2)
             ),
         );
+    }
+    // more atom lines than promised: the count is wrong (a second frame starts with a count)
+    if let Some((k, extra)) = lines
+        .iter()
+        .enumerate()
+        .skip(2 + n)
+        .find(|(_, l)| !l.trim().is_empty())
+    {
+        let f: Vec<&str> = extra.split_whitespace().collect();
+        if f.len() >= 4 && f[1..4].iter().all(|x| x.parse::<f64>().is_ok()) {
+            return err(
+                k + 1,
+                format!(
+                    "the file promises {n} atoms on line 1, but more atom lines follow; \
+                     correct the count"
+                ),
+            );
+        }
     }
     let mut atoms = Vec::with_capacity(n);
     for (i, line) in lines[2..2 + n].iter().enumerate() {
@@ -159,8 +196,19 @@ pub fn parse_molfile(text: &str) -> Result<Vec<Atom>, StructureError> {
     Ok(atoms)
 }
 
-/// Read by content: a first line that is a number means XYZ, otherwise a molfile/SDF.
+/// Read by content: a counts line marked V2000/V3000 on line 4 means a molfile/SDF (whose
+/// title may be a number, such as a database id); else a first line that is a number means XYZ.
 pub fn parse(text: &str) -> Result<Vec<Atom>, StructureError> {
+    if text.trim().is_empty() {
+        return err(
+            1,
+            "the file is empty: give an XYZ file or an MDL molfile/SDF (V2000)",
+        );
+    }
+    let fourth = text.lines().nth(3).unwrap_or("");
+    if fourth.contains("V2000") || fourth.contains("V3000") {
+        return parse_molfile(text);
+    }
     let first = text.lines().next().unwrap_or("").trim();
     if first.parse::<usize>().is_ok() {
         parse_xyz(text)

@@ -29,13 +29,23 @@ const SCALE: f64 = 1.17;
 const MAP: usize = 21;
 
 pub fn run(req: StericsRequest) -> anyhow::Result<Status> {
+    if let Err(e) = check_add_to(&req) {
+        eprintln!("error: {e}");
+        return Ok(Status::Rejected);
+    }
     let shown = req.file.display().to_string();
-    let text = match std::fs::read_to_string(&req.file) {
-        Ok(t) => t,
+    let bytes = match std::fs::read(&req.file) {
+        Ok(b) => b,
         Err(e) => {
             eprintln!("error: cannot read {shown}: {e}");
             return Ok(Status::Failure);
         }
+    };
+    let Ok(text) = String::from_utf8(bytes) else {
+        eprintln!(
+            "error: {shown} is not a text file; give an XYZ file or an MDL molfile/SDF (V2000)"
+        );
+        return Ok(Status::Rejected);
     };
     let atoms = match structure::parse(&text) {
         Ok(a) => a,
@@ -132,7 +142,7 @@ pub fn run(req: StericsRequest) -> anyhow::Result<Status> {
         )?;
         writeln!(
             out,
-            "  quadrants          {:.1} | {:.1} | {:.1} | {:.1} %   (+x+y, -x+y, -x-y, +x-y)",
+            "  quadrants          {:.1} | {:.1} | {:.1} | {:.1} %   (+x+y, -x+y, -x-y, +x-y; +x toward the donor's first neighbour)",
             buried.quadrants[0], buried.quadrants[1], buried.quadrants[2], buried.quadrants[3]
         )?;
         writeln!(out, "  steric map, looking down the metal-donor axis:")?;
@@ -167,45 +177,100 @@ pub fn run(req: StericsRequest) -> anyhow::Result<Status> {
     stdout.flush()?;
     drop(stdout);
     if let Some(set) = &req.add_to {
-        return add_to_set(&req, set, cone, &shown);
+        return add_to_set(&req, set, cone, &shown, &metal);
     }
     Ok(Status::Ok)
 }
 
-/// Append the ligand to a user set (never rewriting what is there), then check it loads.
-fn add_to_set(req: &StericsRequest, set: &str, cone: f64, shown: &str) -> anyhow::Result<Status> {
+/// A key that formulas can use: a letter first, then letters, digits and ( ) * ' with
+/// balanced brackets (PCyp3, P(OMe)3, Cp').
+fn formula_key(key: &str) -> bool {
+    let mut depth = 0i32;
+    key.chars().next().is_some_and(|c| c.is_ascii_alphabetic())
+        && key.chars().all(|c| {
+            depth += match c {
+                '(' => 1,
+                ')' => -1,
+                _ => 0,
+            };
+            depth >= 0 && (c.is_ascii_alphanumeric() || matches!(c, '(' | ')' | '*' | '\''))
+        })
+        && depth == 0
+}
+
+/// Checks `--add-to` and its options before anything is measured or printed, so a bad request
+/// writes nothing.
+fn check_add_to(req: &StericsRequest) -> Result<(), String> {
+    let Some(set) = &req.add_to else {
+        if req.key.is_some() || req.name.is_some() {
+            return Err("--key and --name go with --add-to SET".into());
+        }
+        return Ok(());
+    };
+    let Some(key) = &req.key else {
+        return Err("--add-to needs --key, the ligand's name in formulas".into());
+    };
+    if set.is_empty()
+        || !set
+            .chars()
+            .all(|c| c.is_ascii_alphanumeric() || matches!(c, '_' | '-'))
+    {
+        return Err(format!(
+            "--add-to '{set}': a set name is letters, digits, '_' or '-'"
+        ));
+    }
+    if !formula_key(key) {
+        return Err(format!(
+            "--key '{key}': a key starts with a letter and holds letters, digits and ( ) * ' \
+             with balanced brackets, as it will be written in formulas"
+        ));
+    }
+    if crate::chem::CbcClass::parse(&req.class).is_err() {
+        return Err(format!(
+            "--class '{}' is not a CBC class such as L or LX",
+            req.class
+        ));
+    }
+    if !crate::catalogue::FAMILIES.contains(&req.family.as_str()) {
+        return Err(format!(
+            "--family '{}' is not a family; the families are: {}",
+            req.family,
+            crate::catalogue::FAMILIES.join(", ")
+        ));
+    }
+    let cat = super::load_catalogue();
+    if let Some(l) = cat.get(key) {
+        return Err(format!(
+            "--key {key} is already in the catalogue (from {}); choose another key",
+            l.origin
+        ));
+    }
+    Ok(())
+}
+
+/// Append the ligand to a user set (never rewriting what is there), after checking in a
+/// scratch directory that the set still loads with it.
+fn add_to_set(
+    req: &StericsRequest,
+    set: &str,
+    cone: f64,
+    shown: &str,
+    metal: &str,
+) -> anyhow::Result<Status> {
     let Some(key) = &req.key else {
         eprintln!("error: --add-to needs --key, the ligand's name in formulas");
         return Ok(Status::Rejected);
     };
-    let key_ok = !key.is_empty() && !key.chars().any(char::is_whitespace);
-    let set_ok = !set.is_empty()
-        && set
-            .chars()
-            .all(|c| c.is_ascii_alphanumeric() || matches!(c, '_' | '-'));
-    if !key_ok || !set_ok {
-        eprintln!("error: a key is one word, a set name letters, digits, '_' or '-'");
-        return Ok(Status::Rejected);
-    }
-    if crate::chem::CbcClass::parse(&req.class).is_err() {
-        eprintln!(
-            "error: --class '{}' is not a CBC class such as L or LX",
-            req.class
-        );
-        return Ok(Status::Rejected);
-    }
     let Some(dir) = crate::catalogue::user_set_dir() else {
         eprintln!("error: no config directory; set NONET_CONFIG_DIR");
         return Ok(Status::Failure);
     };
-    std::fs::create_dir_all(&dir)?;
     let path = dir.join(format!("{set}.toml"));
     let q = |s: &str| serde_json::to_string(s).unwrap_or_default();
     let name = req.name.clone().unwrap_or_else(|| key.clone());
     let source = format!(
         "computed by nonet from {shown}: exact cone angle (Bilbrey, Kazez, Locklin & Allen, \
-         J. Comput. Chem. 2013) with Bondi radii, metal-donor {:.2} Å",
-        req.distance
+         J. Comput. Chem. 2013) with Bondi radii, metal {metal}"
     );
     let entry = format!(
         "\n[[ligand]]\nkey = {}\nname = {}\nformula = {}\nfamily = {}\ncone_angle = {:.1}\n\
@@ -219,32 +284,48 @@ fn add_to_set(req: &StericsRequest, set: &str, cone: f64, shown: &str) -> anyhow
         q(&format!("steric descriptors from {shown}")),
         q(&req.class)
     );
+    // try the grown set on its own first: nothing reaches the real file unless it loads
+    let old = match std::fs::read_to_string(&path) {
+        Ok(t) => t,
+        Err(e) if e.kind() == std::io::ErrorKind::NotFound => String::new(),
+        Err(e) => {
+            eprintln!("error: cannot read {}: {e}", path.display());
+            return Ok(Status::Failure);
+        }
+    };
+    let scratch = std::env::temp_dir().join(format!("nonet-add-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&scratch);
+    std::fs::create_dir_all(&scratch)?;
+    let trial = scratch.join(format!("{set}.toml"));
+    std::fs::write(&trial, format!("{old}{entry}"))?;
+    let check = crate::catalogue::Catalogue::with_user_dir(Some(&scratch));
+    let loads = check
+        .get(key)
+        .is_some_and(|l| l.origin == trial.display().to_string());
+    let problems: Vec<String> = check
+        .warnings
+        .iter()
+        .filter(|w| w.file == trial.display().to_string())
+        .map(|w| w.to_string())
+        .collect();
+    let _ = std::fs::remove_dir_all(&scratch);
+    if !loads {
+        for w in &problems {
+            eprintln!("warning: {w}");
+        }
+        eprintln!(
+            "error: {key} would not load in {}; nothing was written",
+            path.display()
+        );
+        return Ok(Status::Rejected);
+    }
+    std::fs::create_dir_all(&dir)?;
     let mut f = std::fs::OpenOptions::new()
         .create(true)
         .append(true)
         .open(&path)?;
     f.write_all(entry.as_bytes())?;
     f.sync_data()?;
-    let cat = crate::catalogue::Catalogue::with_user_dir(Some(&dir));
-    let problems: Vec<_> = cat
-        .warnings
-        .iter()
-        .filter(|w| w.file == path.display().to_string())
-        .collect();
-    for w in &problems {
-        eprintln!("warning: {w}");
-    }
-    match cat.get(key) {
-        Some(l) if l.origin == path.display().to_string() => {
-            eprintln!("stored {key} in {} (cone angle {cone:.1}°)", path.display());
-            Ok(Status::Ok)
-        }
-        _ => {
-            eprintln!(
-                "error: {key} was written to {} but does not load; see the warnings",
-                path.display()
-            );
-            Ok(Status::Rejected)
-        }
-    }
+    eprintln!("stored {key} in {} (cone angle {cone:.1}°)", path.display());
+    Ok(Status::Ok)
 }

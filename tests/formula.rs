@@ -165,8 +165,43 @@ fn nesting_and_huge_multipliers_are_refused_not_exploded() {
     let deep = format!("Fe{}CO{}", "(".repeat(40), ")".repeat(40));
     assert!(parse(&deep, cat()).is_err());
     assert!(parse("Fe[[[[(CO)999]999]999]999]", cat()).is_err());
+    // a pasted wall of text is refused at once, and no metal carries hundreds of ligands
     let long = "Fe".to_string() + &"(CO)".repeat(5000);
-    assert!(parse(&long, cat()).is_ok());
+    let e = parse(&long, cat()).expect_err("too long");
+    assert!(e.message.contains("characters long"), "{}", e.message);
+    let e = parse("Fe(CO)999", cat()).expect_err("too many");
+    assert!(e.message.contains("999 ligands"), "{}", e.message);
+    // the largest real counts still read: ReH9 2- (Crabtree 2014, ch. 8), [Mo(CN)8]4-
+    assert!(parse("ReH9 2-", cat()).is_ok());
+    assert!(parse("[Mo(CN)8]4-", cat()).is_ok());
+}
+
+#[test]
+fn decimals_and_main_group_metals_are_explained() {
+    // a dot between digits is a decimal, not lattice solvent
+    for f in ["Fe(CO)1.5", "Fe(CO)5.7"] {
+        let e = parse(f, cat()).expect_err("decimal");
+        assert!(
+            e.message.contains("neither a multiplier nor a solvent"),
+            "{}",
+            e.message
+        );
+    }
+    assert!(parse("[Co(NH3)6]Cl3.2H2O", cat()).is_ok());
+    // "Na(CO)3" is not N + a: say that sodium is no transition metal
+    for (f, sym) in [("Na(CO)3", "Na"), ("Mg(CO)4", "Mg")] {
+        let e = parse(f, cat()).expect_err("main group");
+        assert!(
+            e.message
+                .contains(&format!("{sym} is not a transition metal")),
+            "{}",
+            e.message
+        );
+    }
+    assert!(
+        parse("Na2Fe(CO)4", cat()).is_ok(),
+        "counter-cations still read"
+    );
 }
 
 // ---------------------------------------------------------------- property tests

@@ -199,6 +199,14 @@ fn spin_patterns_beyond_the_octahedron() {
     // Organometallics 1985; from memory), two unpaired without (Cp2VCl)
     assert_eq!(unpaired("Cp2Ti(C2H4)"), Some(0));
     assert_eq!(unpaired("Cp2VCl"), Some(2));
+    // at 18 e with two σ ligands the pair fills the nonbonding a1 orbital: Cp2MoH2, Cp2WCl2
+    // and Cp2MoCl2 are diamagnetic (Lauher & Hoffmann, J. Am. Chem. Soc. 1976, 98, 1729;
+    // Crabtree 2014, ch. 5)
+    for f in ["Cp2MoH2", "Cp2WH2", "Cp2MoCl2", "Cp2WCl2"] {
+        assert_eq!(unpaired(f), Some(0), "{f}");
+    }
+    // heavier four-coordinate d7 centres are square planar, S = 1/2 (common practice)
+    assert_eq!(unpaired("RhCl(Me)(PPh3)2"), Some(1));
     // d2 oxo: paired in dxy (ReOCl3(PPh3)2; Miessler, Fischer & Tarr 2014, ch. 11)
     assert_eq!(unpaired("ReOCl3(PPh3)2"), Some(0));
     // five-coordinate iron(III) porphyrin chloride: high spin (Scheidt & Reed, Chem. Rev. 1981,
@@ -212,6 +220,17 @@ fn spin_patterns_beyond_the_octahedron() {
     assert_eq!(r.unpaired_electrons.first(), Some(&0));
     // Cp4Zr: three η5 rings and one η1, 20 e (Elschenbroich 2006, ch. 15; from memory)
     assert_eq!(report("Cp4Zr").metals[0].electron_count, Frac::int(20));
+    // with other ligands a ring slips past 18 e: CpFe(CO)2(η1-Cp) and (η5-Cp)(η3-Cp)W(CO)2,
+    // both 18 e (Crabtree 2014, ch. 5)
+    for (f, slipped) in [("Cp2Fe(CO)2", "η1-Cp"), ("Cp2W(CO)2", "η3-Cp")] {
+        let r = report(f);
+        assert_eq!(r.metals[0].electron_count, Frac::int(18), "{f}");
+        assert!(r.formula.contains(slipped), "{f}: {}", r.formula);
+    }
+    // Pd2(dba)3: each dba spans both metals, 16 e per Pd(0) (Hartwig 2010; chapter from memory)
+    let r = report("Pd2(dba)3");
+    assert!(r.formula.contains("μ-dba"), "{}", r.formula);
+    assert_eq!(r.metals[0].electron_count, Frac::int(16));
 }
 
 #[test]

@@ -47,8 +47,9 @@ pub fn fit_modes(c: &mut Complex) {
         .filter(|b| !b.pinned && b.ligand.family == "cyclopentadienyl")
         .map(|b| b.count)
         .sum::<u32>();
-    // Cp rings only slip past 20 e, which takes three or more of them
-    if !flexible && !carbene && rings < 3 {
+    // Cp rings only slip with two or more of them: past 20 e, or past 18 e when other ligands
+    // crowd the metal too
+    if !flexible && !carbene && rings < 2 {
         return;
     }
     if carbene {
@@ -89,9 +90,15 @@ fn lower_modes(c: &mut Complex, target: Option<i64>) {
         };
         let goal = target.unwrap_or(m.target as i64);
         let excess = current - goal;
-        // rings hold their hapticity up to 20 e (cobaltocene 19, nickelocene 20); past that a
-        // Cp slips to η1 (Cp4Zr is (η5-Cp)3(η1-Cp)Zr, 20 e)
-        let rings_may_slip = current > 20;
+        // bare metallocenes keep their rings up to 20 e (cobaltocene 19, nickelocene 20); past
+        // that a Cp slips (Cp4Zr is (η5-Cp)3(η1-Cp)Zr, 20 e). With other ligands a ring slips
+        // as soon as the count passes 18: CpFe(CO)2(η1-Cp), (η5-Cp)(η3-Cp)W(CO)2 (Crabtree
+        // 2014, ch. 5)
+        let others = c.sites[0]
+            .ligands
+            .iter()
+            .any(|b| b.ligand.family != "cyclopentadienyl");
+        let rings_may_slip = current > 20 || (others && current > 18);
         if excess <= 0 {
             return;
         }
@@ -189,6 +196,8 @@ const BRIDGING: &[&str] = &[
     "amide",
     "pseudohalide",
     "alkyne",
+    // dienones such as dba span two metals with their two C=C (Pd2(dba)3: 16 e per Pd(0))
+    "alkene",
 ];
 
 /// In a polynuclear complex written without μ marks (`[Rh(COD)Cl]2`, `[Cp*IrCl2]2`), let halide

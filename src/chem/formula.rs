@@ -75,15 +75,45 @@ impl fmt::Display for ParseError {
 
 impl std::error::Error for ParseError {}
 
+/// Two-letter main-group metals: typed as the central atom they split into a one-letter
+/// symbol and a stray letter ("Na" as N + a).
+const MAIN_GROUP_METALS: &[&str] = &[
+    "Li", "Na", "Mg", "Al", "Ca", "Ga", "Rb", "Sr", "In", "Sn", "Sb", "Cs", "Ba", "Tl", "Pb", "Bi",
+    "Be", "Ge", "Po", "Fr", "Ra",
+];
+
 const MAX_MULTIPLIER: u32 = 999;
 const MAX_METALS: usize = 64;
 const MAX_DEPTH: usize = 16;
 const MAX_LIGANDS: u32 = 9_999;
 
+/// Longest formula read, in characters: a complex fits in far fewer, and the bound keeps the
+/// parser's time small on any input.
+const MAX_INPUT: usize = 1_000;
+
+/// Most ligand units one metal can carry: coordination numbers stop near 12 (f block, with
+/// bidentate ligands); twice that still admits every real formula.
+const MAX_PER_METAL: u32 = 24;
+
 /// Parse a formula into a canonical [`Complex`].
 pub fn parse(input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseError> {
+    let whole = |message: String, hint: &str| ParseError {
+        input: input.chars().take(80).collect(),
+        message,
+        column: 0,
+        width: 1,
+        suggestion: None,
+        hint: Some(hint.to_string()),
+    };
+    let length = input.chars().count();
+    if length > MAX_INPUT {
+        return Err(whole(
+            format!("the formula is {length} characters long"),
+            "a formula holds at most 1000 characters; check for pasted text",
+        ));
+    }
     // lattice water or solvent after a centred or plain dot ("K[PtCl3(C2H4)]·H2O") is not
-    // part of the complex
+    // part of the complex; a dot between digits is a decimal, which no formula has
     let (body, solvent) = match input.find(['·', '.']) {
         Some(i) => (
             &input[..i],
@@ -91,7 +121,34 @@ pub fn parse(input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseErr
         ),
         None => (input, None),
     };
+    if let Some(s) = solvent {
+        let named = s.chars().any(|c| c.is_alphabetic());
+        if !s.is_empty() && !named {
+            let column = input[..body.len()].chars().count();
+            return Err(ParseError {
+                input: input.to_string(),
+                message: format!("'{s}' after the dot is neither a multiplier nor a solvent"),
+                column,
+                width: 1,
+                suggestion: None,
+                hint: Some(
+                    "multipliers are whole numbers; lattice solvent goes after the dot \
+                     (·2H2O)"
+                        .into(),
+                ),
+            });
+        }
+    }
     let mut complex = parse_body(body, input, lookup)?;
+    for site in &complex.sites {
+        let units: u32 = site.ligands.iter().map(|b| b.count).sum();
+        if units > MAX_PER_METAL {
+            return Err(whole(
+                format!("{} carries {units} ligands", site.element.symbol),
+                "no metal holds more than 24 ligands; check the multipliers",
+            ));
+        }
+    }
     if let Some(s) = solvent.filter(|s| !s.is_empty()) {
         complex.notes.push(format!(
             "{s} after the dot is lattice solvent, left out of the count"
@@ -900,6 +957,27 @@ impl<'a> Parser<'a> {
     }
 
     fn unknown(&self, at: usize, token: &str) -> ParseError {
+        // "Na(CO)3" splits as N + a: name the main-group metal the chemist typed instead
+        let before = self.text[..at].chars().next_back();
+        let joined: Option<String> = before
+            .filter(char::is_ascii_uppercase)
+            .zip(token.chars().next().filter(char::is_ascii_lowercase))
+            .map(|(a, b)| format!("{a}{b}"));
+        let own = MAIN_GROUP_METALS
+            .contains(&token)
+            .then(|| (token.to_string(), at));
+        let split = joined
+            .filter(|s| MAIN_GROUP_METALS.contains(&s.as_str()))
+            .map(|s| (s, at.saturating_sub(1)));
+        if let Some((sym, from)) = own.or(split) {
+            let mut e = self.error(from, 2, format!("{sym} is not a transition metal"));
+            e.hint = Some(
+                "nonet counts d- and f-block complexes; as a counter-cation write it before \
+                 the complex in brackets, e.g. Na[Co(CO)4]"
+                    .into(),
+            );
+            return e;
+        }
         let mut e = self.error(at, token.len(), format!("unknown ligand '{token}'"));
         e.suggestion = self.lookup.suggest(token);
         e.hint = Some("`nonet ligands QUERY` searches the catalogue".into());

@@ -262,15 +262,22 @@ fn special_cases(input: &SpinInput, geometry: &str, strength: f64) -> Option<Fou
             ),
         ));
     }
-    // bent metallocene d2: a π-acceptor takes one level down, the pair goes there
-    // (Cp2Ti(C2H4), Cp2Ti(CO)2); without one the two electrons stay apart (Cp2VCl)
+    // bent metallocene d2: with two σ ligands (18 e, Cp2MoH2, Cp2WCl2, Cp2Ti(PMe3)2) the pair
+    // fills the one frontier orbital left nonbonding (Lauher & Hoffmann, J. Am. Chem. Soc.
+    // 1976, 98, 1729); at 16 e a π acceptor takes one level down and the pair goes there
+    // (Cp2Ti(C2H4)), while with σ ligands alone the two electrons stay apart (Cp2VCl)
     if geometry == "bent sandwich" && d == 2 {
-        let n = if input.pi_acceptor { 0 } else { 2 };
+        let paired = input.pi_acceptor || input.electrons >= 18;
         return Some((
-            vec![n],
+            vec![if paired { 0 } else { 2 }],
             false,
             Basis(
-                "bent metallocene d2: a π acceptor pairs the electrons, σ ligands alone do not",
+                if input.electrons >= 18 {
+                    "bent metallocene d2 at 18 e: the pair fills the nonbonding a1 orbital"
+                } else {
+                    "bent metallocene d2 below 18 e: a π acceptor pairs the electrons, σ \
+                     ligands alone do not"
+                },
                 None,
             ),
         ));

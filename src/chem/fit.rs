@@ -47,9 +47,25 @@ pub fn fit_modes(c: &mut Complex) {
         .filter(|b| !b.pinned && b.ligand.family == "cyclopentadienyl")
         .map(|b| b.count)
         .sum::<u32>();
-    // Cp rings only slip with two or more of them: past 20 e, or past 18 e when other ligands
-    // crowd the metal too
-    if !flexible && !carbene && rings < 2 {
+    // Cp rings only slip past 20 e (three or more rings), or past 18 e when other ligands
+    // crowd two rings; a bare metallocene keeps both (at most 20 e). The neutral count is
+    // summed cheaply here, and only for two rings
+    let two_crowded = || {
+        let site = &c.sites[0];
+        let others = site
+            .ligands
+            .iter()
+            .any(|b| b.ligand.family != "cyclopentadienyl");
+        let rough = site.element.group as i64 - c.charge as i64
+            + site
+                .ligands
+                .iter()
+                .map(|b| b.count as i64 * b.mode().neutral_electrons())
+                .sum::<i64>();
+        others && rough > 18
+    };
+    let may_slip = rings >= 3 || (rings == 2 && two_crowded());
+    if !flexible && !carbene && !may_slip {
         return;
     }
     if carbene {

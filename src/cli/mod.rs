@@ -183,10 +183,10 @@ pub enum Command {
         /// The donor atom's number in the file (needed when the file has no metal).
         #[arg(long, value_name = "N")]
         donor: Option<usize>,
-        /// Metal-donor distance for a placed metal, Å (2.28 as Tolman used for phosphines;
-        /// 2.00 is usual for carbenes).
-        #[arg(long, default_value_t = 2.28, value_name = "Å")]
-        distance: f64,
+        /// Metal-donor distance for a placed metal, Å [default: 2.28, as Tolman used for
+        /// phosphines; 2.00 is usual for carbenes]. A metal in the file is used as it is.
+        #[arg(long, value_name = "Å")]
+        distance: Option<f64>,
         /// Leave hydrogens out of the buried volume.
         #[arg(long)]
         no_hydrogens: bool,

@@ -13,7 +13,8 @@ use crate::chem::structure;
 pub struct StericsRequest {
     pub file: PathBuf,
     pub donor: Option<usize>,
-    pub distance: f64,
+    /// Metal-donor distance for a placed metal; None: Tolman's 2.28 Å.
+    pub distance: Option<f64>,
     pub hydrogens: bool,
     pub json: bool,
     pub add_to: Option<String>,
@@ -54,20 +55,25 @@ pub fn run(req: StericsRequest) -> anyhow::Result<Status> {
             return Ok(Status::Rejected);
         }
     };
-    if !(1.0..=4.0).contains(&req.distance) {
-        eprintln!(
-            "error: --distance {} Å is not a metal-donor distance (1 to 4 Å)",
-            req.distance
-        );
+    let distance = req.distance.unwrap_or(2.28);
+    if !(1.0..=4.0).contains(&distance) {
+        eprintln!("error: --distance {distance} Å is not a metal-donor distance (1 to 4 Å)");
         return Ok(Status::Rejected);
     }
-    let s = match setup(&atoms, req.donor, req.distance) {
+    let s = match setup(&atoms, req.donor, distance) {
         Ok(s) => s,
         Err(e) => {
             eprintln!("error: {shown}: {e}");
             return Ok(Status::Rejected);
         }
     };
+    if req.distance.is_some() && !s.dummy {
+        eprintln!(
+            "note: --distance is not used: the metal is taken from the file, {:.2} Å from the \
+             donor",
+            s.distance
+        );
+    }
     let (cone, (omega, g)) = match (exact_cone_angle(&s), solid_angle(&s)) {
         (Ok(c), Ok(o)) => (c, o),
         (Err(e), _) | (_, Err(e)) => {

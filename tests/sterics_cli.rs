@@ -192,6 +192,10 @@ fn the_source_note_gives_the_distance_used() {
         .expect("set");
     // the Ni-P distance of the file, not the 2.28 Å default
     assert!(set.contains("from the file, 2.04 Å"), "{set}");
+    // --distance only places a metal; with one in the file it says it is unused
+    let out = nonet(&d, &["sterics", f.to_str().unwrap(), "--distance", "3"]);
+    assert!(out.status.success());
+    assert!(String::from_utf8_lossy(&out.stderr).contains("--distance is not used"));
 }
 
 #[test]

@@ -328,6 +328,11 @@ fn like_for_like_comes_first_and_no_swap_is_not_a_candidate() {
     assert!(lines.iter().all(|l| l["ligands"][0] != "Cp"));
     assert!(lines.iter().any(|l| l["ligands"][0] == "Cp*"));
     assert!(lines.iter().all(|l| l["hazards_on_record"].is_boolean()));
+    // Tp has no cone angle in the catalogue: its crowding is marked partial
+    for l in &lines {
+        let no_cone = l["cone_angles_deg"][0].is_null();
+        assert_eq!(l["crowding_partial"], no_cone, "{l}");
+    }
     // a window ranks every count inside it alike
     let out = nonet(&[
         "screen",

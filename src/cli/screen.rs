@@ -194,6 +194,7 @@ pub fn run(req: ScreenRequest) -> anyhow::Result<Status> {
         )?;
     }
     let mut no_record = std::collections::BTreeSet::new();
+    let mut any_partial = false;
     for (i, c) in found.iter().enumerate() {
         let keys: Vec<&str> = c.ligands.iter().map(|l| l.key.as_str()).collect();
         let cones: Vec<Option<f64>> = c
@@ -216,6 +217,9 @@ pub fn run(req: ScreenRequest) -> anyhow::Result<Status> {
             .map(|l| l.key.as_str())
             .collect();
         no_record.extend(unrecorded.iter().map(|k| k.to_string()));
+        // an entering ligand without a cone angle adds crowding nobody measured
+        let partial = cones.iter().any(Option::is_none);
+        any_partial |= partial;
         if req.json {
             let line = json!({
                 "schema": 1,
@@ -234,6 +238,7 @@ pub fn run(req: ScreenRequest) -> anyhow::Result<Status> {
                 "score": c.score,
                 "product": c.report.formula,
                 "hazards_on_record": unrecorded.is_empty(),
+                "crowding_partial": partial,
             });
             serde_json::to_writer(&mut out, &line)?;
             writeln!(out)?;
@@ -246,14 +251,14 @@ pub fn run(req: ScreenRequest) -> anyhow::Result<Status> {
             };
             writeln!(
                 out,
-                "{:>4}  {:<22} {:>4} {:>4} {:>4}  {:<12} {:>6.2} {:>8} {:>8} {:>3}  {}",
+                "{:>4}  {:<22} {:>4} {:>4} {:>4}  {:<12} {:>6} {:>8} {:>8} {:>3}  {}",
                 i + 1,
                 keys.join(" + "),
                 c.electrons.to_string(),
                 c.oxidation_state.signed(),
                 c.d_electrons.to_string(),
                 saturation,
-                c.crowding,
+                format!("{:.2}{}", c.crowding, if partial { "?" } else { "" }),
                 show(&cones),
                 show(&teps),
                 unpaired.map_or("?".to_string(), |u| u.to_string()),
@@ -263,6 +268,9 @@ pub fn run(req: ScreenRequest) -> anyhow::Result<Status> {
     }
     if found.is_empty() {
         eprintln!("no candidate meets the constraints");
+    }
+    if any_partial && !req.json {
+        eprintln!("note: '?' after crowding: an entering ligand has no cone angle, so its bulk is not in the sum");
     }
     if req.no_hazardous && !no_record.is_empty() && !req.json {
         eprintln!(

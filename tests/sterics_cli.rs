@@ -20,10 +20,10 @@ fn nonet(d: &Path, args: &[&str]) -> std::process::Output {
         .expect("run")
 }
 
-/// PH3 from standard geometry (P-H 1.42 Å, H-P-H 93.3°), no metal.
-fn ph3(d: &Path) -> PathBuf {
+/// The three H lines of PH3 from standard geometry (P-H 1.42 Å, H-P-H 93.3°), P at the origin.
+fn ph3_hydrogens() -> String {
     let b = (((93.3f64).to_radians().cos() + 0.5) / 1.5).sqrt().acos();
-    let mut text = String::from("4\nphosphine\nP 0 0 0\n");
+    let mut text = String::new();
     for k in 0..3 {
         let p = k as f64 * 2.0 * std::f64::consts::PI / 3.0;
         text.push_str(&format!(
@@ -33,8 +33,13 @@ fn ph3(d: &Path) -> PathBuf {
             1.42 * b.cos()
         ));
     }
+    text
+}
+
+/// PH3, no metal.
+fn ph3(d: &Path) -> PathBuf {
     let f = d.join("ph3.xyz");
-    std::fs::write(&f, text).expect("write");
+    std::fs::write(&f, format!("4\nphosphine\nP 0 0 0\n{}", ph3_hydrogens())).expect("write");
     f
 }
 
@@ -246,17 +251,7 @@ fn a_donor_far_from_the_metal_is_not_bonded_to_it() {
     let d = dir("far");
     // PH3 with an iron atom 6 Å away on the far side: no bond, so without --donor it is an
     // error, and with --donor the metal is placed along the lone pair
-    let b = (((93.3f64).to_radians().cos() + 0.5) / 1.5).sqrt().acos();
-    let mut text = String::from("5\nfar metal\nFe 0 0 6\nP 0 0 0\n");
-    for k in 0..3 {
-        let p = k as f64 * 2.0 * std::f64::consts::PI / 3.0;
-        text.push_str(&format!(
-            "H {:.4} {:.4} {:.4}\n",
-            1.42 * b.sin() * p.cos(),
-            1.42 * b.sin() * p.sin(),
-            1.42 * b.cos()
-        ));
-    }
+    let text = format!("5\nfar metal\nFe 0 0 6\nP 0 0 0\n{}", ph3_hydrogens());
     let f = d.join("far.xyz");
     std::fs::write(&f, text).expect("write");
     let out = nonet(&d, &["sterics", f.to_str().unwrap()]);

@@ -354,3 +354,43 @@ fn like_for_like_comes_first_and_no_swap_is_not_a_candidate() {
     .expect("json");
     assert_eq!(first["electron_count"], 16, "{first}");
 }
+
+#[test]
+fn a_chelate_can_take_two_sites() {
+    // Mo(CO)6 -> cis-Mo(CO)4(dppe) and PdCl2(PPh3)2 -> PdCl2(dppe), both textbook products
+    // of swapping two monodentate ligands for one diphosphine (common practice)
+    for (formula, site, product, e) in [
+        ("Mo(CO)6", "CO", "[Mo(CO)4(κ2-dppe)]", 18),
+        ("PdCl2(PPh3)2", "PPh3", "[Pd(κ2-dppe)Cl2]", 16),
+    ] {
+        let out = nonet(&[
+            "screen",
+            formula,
+            "--site",
+            site,
+            "--site",
+            site,
+            "--family",
+            "diphosphine",
+            "--saturated",
+            "--top",
+            "50",
+            "--json",
+        ]);
+        assert!(
+            out.status.success(),
+            "{}",
+            String::from_utf8_lossy(&out.stderr)
+        );
+        let found: Vec<serde_json::Value> = String::from_utf8_lossy(&out.stdout)
+            .lines()
+            .map(|l| serde_json::from_str(l).expect("json"))
+            .collect();
+        let hit = found
+            .iter()
+            .find(|l| l["product"] == product)
+            .unwrap_or_else(|| panic!("{formula}: no {product} in {found:?}"));
+        assert_eq!(hit["electron_count"], e);
+        assert_eq!(hit["ligands"], serde_json::json!(["dppe"]));
+    }
+}

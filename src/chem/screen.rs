@@ -1,5 +1,6 @@
-//! Ranked screening of ligand swaps: every catalogue ligand (or every pair, for two sites) in
-//! place of chosen ligands of a complex, filtered by constraints and ranked.
+//! Ranked screening of ligand swaps: every catalogue ligand (or every pair, and every κ2
+//! chelate in place of both, for two sites) in place of chosen ligands of a complex, filtered
+//! by constraints and ranked.
 //!
 //! Counting is incremental: a swap changes the neutral count by the entering minus the leaving
 //! ligand's electrons and the oxidation state by their ionic charges, so candidates are judged
@@ -58,7 +59,7 @@ pub enum Rank {
 /// A ranked candidate.
 #[derive(Debug, Clone)]
 pub struct Candidate {
-    /// Entering ligands, one per site, in site order.
+    /// Entering ligands, one per site in site order; a single κ2 chelate when it takes both.
     pub ligands: Vec<Arc<LigandDef>>,
     pub electrons: Frac,
     pub oxidation_state: Frac,
@@ -78,6 +79,8 @@ struct Scored {
     score: f64,
     chosen: [usize; 2],
     n: usize,
+    /// One κ2 ligand in place of both sites.
+    chelate: bool,
     e: Frac,
     os: Frac,
     crowd: f64,
@@ -102,6 +105,7 @@ impl Ord for Scored {
         self.score
             .total_cmp(&other.score)
             .then_with(|| self.chosen[..self.n].cmp(&other.chosen[..other.n]))
+            .then_with(|| self.chelate.cmp(&other.chelate))
     }
 }
 
@@ -242,19 +246,24 @@ pub fn screen(
 
     // the numbers of one candidate, before any full count
     let judge = |chosen: &[usize]| -> Option<(Frac, Frac, f64, f64)> {
-        if chosen.iter().zip(&same).all(|(&i, s)| Some(i) == *s) {
+        if chosen.len() == same.len() && chosen.iter().zip(&same).all(|(&i, s)| Some(i) == *s) {
             return None;
         }
         let mut e = base_e;
         let mut os = base_os;
         let mut crowd = base_crowd;
         let mut unknown = 0;
-        for (k, &i) in chosen.iter().enumerate() {
-            let (tin, tout) = (t[i], out_terms[k]);
-            e = e + (tin.neutral - tout.neutral);
-            os = os + (tout.charge - tin.charge);
-            crowd += tin.fraction.unwrap_or(0.0) - tout.fraction.unwrap_or(0.0);
-            unknown += usize::from(tin.fraction.is_none());
+        // every leaving ligand goes, whether one ligand per site or one chelate for both
+        for &i in chosen {
+            e = e + t[i].neutral;
+            os = os - t[i].charge;
+            crowd += t[i].fraction.unwrap_or(0.0);
+            unknown += usize::from(t[i].fraction.is_none());
+        }
+        for tout in &out_terms {
+            e = e - tout.neutral;
+            os = os + tout.charge;
+            crowd -= tout.fraction.unwrap_or(0.0);
         }
         // a ligand without a cone angle cannot be shown to fit: it fails a crowding limit and
         // ranks after every ligand whose size is known
@@ -306,6 +315,7 @@ pub fn screen(
                 score,
                 chosen,
                 n,
+                chelate: n < sites.len(),
                 e,
                 os,
                 crowd,
@@ -364,15 +374,34 @@ pub fn screen(
                 }
             }
         }
+        // one chelating ligand in place of both (two PPh3 for dppe)
+        for &i in &pool {
+            let m = &ligands[i].modes[0];
+            if m.sites != 2 || !m.label.starts_with('κ') || m.bridges > 1 {
+                continue;
+            }
+            let this = index;
+            index += 1;
+            if shard.is_some_and(|s| !s.takes(this)) {
+                continue;
+            }
+            offer([i, 0], 1, &mut best);
+        }
     }
-    let scored = best
-        .into_sorted_vec()
-        .into_iter()
-        .map(|c| (c.score, c.chosen[..c.n].to_vec(), c.e, c.os, c.crowd));
+    let scored = best.into_sorted_vec().into_iter().map(|c| {
+        (
+            c.score,
+            c.chosen[..c.n].to_vec(),
+            c.chelate,
+            c.e,
+            c.os,
+            c.crowd,
+        )
+    });
 
     // full counts, in ranking order, until enough candidates pass what only they can tell
     let mut out = Vec::new();
-    for (score, chosen, e, os, crowd) in scored {
+    for (score, chosen, chelate, e, os, crowd) in scored {
         if out.len() >= limit {
             break;
         }
@@ -391,14 +420,17 @@ pub fn screen(
                 ok = false;
                 break;
             };
-            match apply(
-                &product,
-                &Edit::Swap {
+            // a chelate takes the first site; the other leaving ligand simply goes
+            let edit = if chelate && k > 0 {
+                Edit::Remove { slot }
+            } else {
+                Edit::Swap {
                     slot,
-                    ligand: ligands[chosen[k]].clone(),
+                    ligand: ligands[chosen[if chelate { 0 } else { k }]].clone(),
                     mode: 0,
-                },
-            ) {
+                }
+            };
+            match apply(&product, &edit) {
                 Ok((p, _)) => product = p,
                 Err(_) => {
                     ok = false;

@@ -243,7 +243,7 @@ fn the_selection_is_marked_without_colour() {
     let app = demo();
     let t = screen(&app, 80, 24, Theme { color: false });
     let buf = t.backend().buffer();
-    // the selected complex row carries reverse video even with NO_COLOR
+    // the selected complex row carries reversed colours even with NO_COLOR
     let marked = (0..buf.area.height)
         .any(|y| (0..buf.area.width).any(|x| buf[(x, y)].modifier.contains(Modifier::REVERSED)));
     assert!(marked);

@@ -1,6 +1,6 @@
 //! Styles from the 16 named ANSI colours (they follow the user's palette, so they read on light
 //! and dark backgrounds), or none at all under NO_COLOR. Selection and focus are also marked by
-//! bold and reverse video, and every status has a word or glyph, so nothing relies on colour.
+//! bold and reversed colours, and every status has a word or glyph, so nothing relies on colour.
 
 use ratatui::style::{Color, Modifier, Style};
 

@@ -170,6 +170,19 @@ fn the_screening_view_ranks_swaps_and_opens_the_preview() {
         .found
         .iter()
         .all(|c| c.electrons.as_int() == Some(16) && c.crowding <= 1.15));
+    // at 80x24 the constraints read in words and fit the view
+    let mut t = ratatui::Terminal::new(ratatui::backend::TestBackend::new(80, 24)).expect("term");
+    t.draw(|f| nonet::tui::draw(f, &app, &nonet::tui::Theme { color: false }))
+        .expect("draw");
+    let shown: String = t
+        .backend()
+        .buffer()
+        .content()
+        .iter()
+        .map(|c| c.symbol())
+        .collect();
+    assert!(shown.contains("electrons 16"), "{shown}");
+    assert!(shown.contains("ranked by electron count"), "{shown}");
     let first = app.screen.found[0].ligands[0].key.clone();
     press(&mut app, "<enter>");
     assert_eq!(app.mode, Mode::Normal);

@@ -167,17 +167,33 @@ pub fn render_screen(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
     f.render_widget(b, area);
     let v = &app.screen;
     let k = &v.constraints;
-    let on = |x: bool| if x { "on" } else { "off" };
+    let only = |x: bool| if x { "only" } else { "any" };
+    let rank = match v.rank {
+        crate::chem::screen::Rank::Electrons => "electron count",
+        crate::chem::screen::Rank::Crowding => "least crowding",
+        crate::chem::screen::Rank::Donor => "strongest donor",
+        crate::chem::screen::Rank::Cone => "smallest cone",
+    };
     let mut lines = vec![
         Line::styled(
             format!(
-                "e target {} · saturated {} · crowding {} · diamagnetic {} · no hazards {} · rank {:?}",
+                "electrons {} · saturated {} · crowding {} · ranked by {rank}",
                 v.electrons.map_or("any".to_string(), |e| e.to_string()),
-                on(k.saturated),
-                k.max_crowding.map_or("any".to_string(), |c| format!("<= {c:.2}")),
-                on(k.diamagnetic),
-                on(k.no_hazardous),
-                v.rank
+                only(k.saturated),
+                k.max_crowding
+                    .map_or("any".to_string(), |c| format!("<= {c:.2}")),
+            ),
+            t.dim(),
+        ),
+        Line::styled(
+            format!(
+                "diamagnetic {} · {}",
+                only(k.diamagnetic),
+                if k.no_hazardous {
+                    "ligands with GHS hazards left out; no record is not safe"
+                } else {
+                    "hazardous ligands kept"
+                },
             ),
             t.dim(),
         ),
@@ -200,7 +216,7 @@ pub fn render_screen(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
         let l = &c.ligands[0];
         let m = c.report.metals.first();
         let text = format!(
-            "{} {:<4}{:<14}{:>5}{:>5}{:>5}  {:<12}{:>7.2}{:>6}{:>7}{:>4}",
+            "{} {:<4}{:<14}{:>5}{:>5}{:>5}  {:<12}{:>7}{:>6}{:>7}{:>4}",
             marker(app, i == v.row),
             i + 1,
             l.key,
@@ -208,7 +224,12 @@ pub fn render_screen(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
             c.oxidation_state.signed(),
             c.d_electrons.to_string(),
             m.map_or("?", |m| m.saturation.code()),
-            c.crowding,
+            // '?': the entering ligand has no cone angle, so its bulk is not in the sum
+            format!(
+                "{:.2}{}",
+                c.crowding,
+                if l.cone_angle.is_none() { "?" } else { "" }
+            ),
             l.cone_angle
                 .as_ref()
                 .map_or("-".to_string(), |x| format!("{:.0}", x.value)),

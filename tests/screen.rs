@@ -190,6 +190,19 @@ fn shards_partition_the_screen() {
     }
 }
 
+/// The JSON lines of a successful run.
+fn json_lines(out: &std::process::Output) -> Vec<serde_json::Value> {
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    String::from_utf8_lossy(&out.stdout)
+        .lines()
+        .map(|l| serde_json::from_str(l).expect("json"))
+        .collect()
+}
+
 fn nonet(args: &[&str]) -> std::process::Output {
     let dir = std::env::temp_dir().join(format!("nonet-screen-{}", std::process::id()));
     std::process::Command::new(env!("CARGO_BIN_EXE_nonet"))
@@ -215,15 +228,7 @@ fn the_cli_ranks_and_refuses_bad_requests() {
         "3",
         "--json",
     ]);
-    assert!(
-        out.status.success(),
-        "{}",
-        String::from_utf8_lossy(&out.stderr)
-    );
-    let lines: Vec<serde_json::Value> = String::from_utf8_lossy(&out.stdout)
-        .lines()
-        .map(|l| serde_json::from_str(l).expect("json"))
-        .collect();
+    let lines = json_lines(&out);
     assert_eq!(lines.len(), 3);
     assert_eq!(lines[0]["rank"], 1);
     assert!(lines[0]["ligands"].is_array() && lines[0]["product"].is_string());
@@ -314,15 +319,7 @@ fn like_for_like_comes_first_and_no_swap_is_not_a_candidate() {
     let out = nonet(&[
         "screen", "Cp2ZrCl2", "--site", "η5-Cp", "--top", "5", "--json",
     ]);
-    assert!(
-        out.status.success(),
-        "{}",
-        String::from_utf8_lossy(&out.stderr)
-    );
-    let lines: Vec<serde_json::Value> = String::from_utf8_lossy(&out.stdout)
-        .lines()
-        .map(|l| serde_json::from_str(l).expect("json"))
-        .collect();
+    let lines = json_lines(&out);
     assert!(!lines.is_empty());
     assert!(lines.iter().all(|l| l["electron_count"] == 16), "{lines:?}");
     assert!(lines.iter().all(|l| l["ligands"][0] != "Cp"));
@@ -377,15 +374,7 @@ fn a_chelate_can_take_two_sites() {
             "50",
             "--json",
         ]);
-        assert!(
-            out.status.success(),
-            "{}",
-            String::from_utf8_lossy(&out.stderr)
-        );
-        let found: Vec<serde_json::Value> = String::from_utf8_lossy(&out.stdout)
-            .lines()
-            .map(|l| serde_json::from_str(l).expect("json"))
-            .collect();
+        let found = json_lines(&out);
         let hit = found
             .iter()
             .find(|l| l["product"] == product)

@@ -101,20 +101,22 @@ pub struct Setup {
     pub donor_atom: usize,
 }
 
-/// Which atoms are joined to `start` by bonds (covalent radii, 20% slack), never passing
-/// through atom `barrier`.
+/// Whether two atoms are bonded: closer than their covalent radii with 20% slack.
+fn bonded(a: &Atom, b: &Atom) -> bool {
+    norm(sub(a.pos, b.pos)) < 1.2 * (covalent_radius(&a.symbol) + covalent_radius(&b.symbol))
+}
+
+/// Which atoms are joined to `start` by bonds, never passing through atom `barrier`.
 fn bonded_to(atoms: &[Atom], start: usize, barrier: usize) -> Vec<bool> {
     let mut seen = vec![false; atoms.len()];
     seen[start] = true;
     let mut stack = vec![start];
     while let Some(i) = stack.pop() {
-        let ri = covalent_radius(&atoms[i].symbol);
         for j in 0..atoms.len() {
             if seen[j] || j == barrier {
                 continue;
             }
-            let reach = 1.2 * (ri + covalent_radius(&atoms[j].symbol));
-            if norm(sub(atoms[i].pos, atoms[j].pos)) < reach {
+            if bonded(&atoms[i], &atoms[j]) {
                 seen[j] = true;
                 stack.push(j);
             }
@@ -206,13 +208,10 @@ pub fn setup(atoms: &[Atom], donor: Option<usize>, distance: f64) -> Result<Setu
         });
     }
     let p = atoms[d].pos;
-    let rd = covalent_radius(&atoms[d].symbol);
     let bonds: Vec<[f64; 3]> = ligand
         .iter()
         .enumerate()
-        .filter(|(i, a)| {
-            *i != donor_in_ligand && norm(sub(a.pos, p)) < 1.2 * (rd + covalent_radius(&a.symbol))
-        })
+        .filter(|(i, a)| *i != donor_in_ligand && bonded(a, &atoms[d]))
         .map(|(_, a)| unit(sub(a.pos, p)))
         .collect();
     if bonds.is_empty() {
@@ -393,14 +392,12 @@ pub struct Buried {
 /// The map's +x axis: toward the first atom bonded to the donor (in file order), seen down the
 /// metal-donor axis `z`, so quadrants do not depend on how the file is oriented.
 fn frame_x(s: &Setup, z: [f64; 3]) -> [f64; 3] {
-    let p = s.atoms[s.donor].pos;
-    let rd = covalent_radius(&s.atoms[s.donor].symbol);
+    let donor = &s.atoms[s.donor];
+    let p = donor.pos;
     s.atoms
         .iter()
         .enumerate()
-        .filter(|(i, a)| {
-            *i != s.donor && norm(sub(a.pos, p)) < 1.2 * (rd + covalent_radius(&a.symbol))
-        })
+        .filter(|(i, a)| *i != s.donor && bonded(a, donor))
         .map(|(_, a)| {
             let v = sub(a.pos, p);
             sub(v, scale(z, dot(v, z)))

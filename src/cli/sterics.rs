@@ -148,7 +148,7 @@ pub fn run(req: StericsRequest) -> anyhow::Result<Status> {
         )?;
         writeln!(
             out,
-            "  quadrants          {:.1} | {:.1} | {:.1} | {:.1} %   (+x+y, -x+y, -x-y, +x-y; +x toward the donor's first neighbour)",
+            "  quadrants          {:.1} | {:.1} | {:.1} | {:.1} %   (+x+y, -x+y, -x-y, +x-y; +x: donor's first neighbour)",
             buried.quadrants[0], buried.quadrants[1], buried.quadrants[2], buried.quadrants[3]
         )?;
         writeln!(out, "  steric map, looking down the metal-donor axis:")?;
@@ -182,8 +182,8 @@ pub fn run(req: StericsRequest) -> anyhow::Result<Status> {
     stdout.write_all(text.as_bytes())?;
     stdout.flush()?;
     drop(stdout);
-    if let Some(set) = &req.add_to {
-        return add_to_set(&req, set, cone, &shown, &metal);
+    if let (Some(set), Some(key)) = (&req.add_to, &req.key) {
+        return add_to_set(&req, set, key, cone, &shown, &metal);
     }
     Ok(Status::Ok)
 }
@@ -256,24 +256,22 @@ fn check_add_to(req: &StericsRequest) -> Result<(), String> {
 
 /// Append the ligand to a user set (never rewriting what is there), after checking in a
 /// scratch directory that the set still loads with it.
+/// `check_add_to` has already vetted `set`, `key`, class and family.
 fn add_to_set(
     req: &StericsRequest,
     set: &str,
+    key: &str,
     cone: f64,
     shown: &str,
     metal: &str,
 ) -> anyhow::Result<Status> {
-    let Some(key) = &req.key else {
-        eprintln!("error: --add-to needs --key, the ligand's name in formulas");
-        return Ok(Status::Rejected);
-    };
     let Some(dir) = crate::catalogue::user_set_dir() else {
         eprintln!("error: no config directory; set NONET_CONFIG_DIR");
         return Ok(Status::Failure);
     };
     let path = dir.join(format!("{set}.toml"));
     let q = |s: &str| serde_json::to_string(s).unwrap_or_default();
-    let name = req.name.clone().unwrap_or_else(|| key.clone());
+    let name = req.name.clone().unwrap_or_else(|| key.to_string());
     let source = format!(
         "computed by nonet from {shown}: exact cone angle (Bilbrey, Kazez, Locklin & Allen, \
          J. Comput. Chem. 2013) with Bondi radii, metal {metal}"

@@ -158,7 +158,12 @@ fn every_set_file_is_compiled_in() {
         .map(|(name, _)| format!("bundled:{}", name.trim_end_matches(".toml")))
         .collect();
     assert!(!on_disk.is_empty(), "no *.toml in {}", set_dir().display());
-    let origins: BTreeSet<String> = cat.ligands().iter().map(|l| l.origin.clone()).collect();
+    let origins: BTreeSet<String> = cat
+        .ligands()
+        .iter()
+        .map(|l| l.origin.clone())
+        .chain(cat.substrates().iter().map(|s| s.origin.clone()))
+        .collect();
     let missing: Vec<&String> = on_disk.difference(&origins).collect();
     assert!(
         missing.is_empty(),

@@ -8,6 +8,8 @@ use serde::Deserialize;
 use toml::Spanned;
 
 use crate::chem::ligand::{BindingMode, CbcClass, FieldClass, LigandDef, Sourced};
+use crate::chem::molecule::Molecule;
+use crate::chem::species::SubstrateDef;
 
 /// A problem in a ligand set: where it is and what to do.
 #[derive(Debug, Clone, PartialEq)]
@@ -37,6 +39,26 @@ struct RawSet {
     set: Option<String>,
     #[serde(default)]
     ligand: Vec<Spanned<RawLigand>>,
+    #[serde(default)]
+    substrate: Vec<Spanned<RawSubstrate>>,
+}
+
+/// A reagent or substrate that steps bring in or release (MeI, PhB(OH)2, AgBF4, H2).
+#[derive(Deserialize)]
+#[serde(deny_unknown_fields)]
+struct RawSubstrate {
+    key: Spanned<String>,
+    name: String,
+    formula: String,
+    #[serde(default)]
+    aliases: Vec<String>,
+    smiles: String,
+    #[serde(default)]
+    hazards: Vec<String>,
+    #[serde(default)]
+    hazard_source: Option<String>,
+    #[serde(default)]
+    notes: Option<String>,
 }
 
 #[derive(Deserialize)]
@@ -45,6 +67,8 @@ struct RawLigand {
     key: Spanned<String>,
     name: String,
     formula: String,
+    #[serde(default)]
+    smiles: Option<String>,
     #[serde(default)]
     aliases: Vec<String>,
     family: String,
@@ -141,9 +165,23 @@ pub const FAMILIES: &[&str] = &[
     "other",
 ];
 
-/// Parse one set. A syntax error rejects the file; a bad ligand is skipped and reported while
+/// What one set file holds.
+#[derive(Default)]
+pub struct Set {
+    pub ligands: Vec<LigandDef>,
+    pub substrates: Vec<SubstrateDef>,
+    pub errors: Vec<SetError>,
+}
+
+/// Parse one set. A syntax error rejects the file; a bad entry is skipped and reported while
 /// the rest of the file loads.
 pub fn parse_set(file: &str, text: &str, origin: &str) -> (Vec<LigandDef>, Vec<SetError>) {
+    let set = parse_set_all(file, text, origin);
+    (set.ligands, set.errors)
+}
+
+/// Parse one set with its substrates.
+pub fn parse_set_all(file: &str, text: &str, origin: &str) -> Set {
     let at = |span: Option<Range<usize>>, key: Option<String>, message: String| {
         let (line, column) = line_col(text, span.map_or(0, |s| s.start));
         SetError {
@@ -158,7 +196,10 @@ pub fn parse_set(file: &str, text: &str, origin: &str) -> (Vec<LigandDef>, Vec<S
         Ok(r) => r,
         Err(e) => {
             let msg = e.message().trim().to_string();
-            return (Vec::new(), vec![at(e.span(), None, msg)]);
+            return Set {
+                errors: vec![at(e.span(), None, msg)],
+                ..Set::default()
+            };
         }
     };
     let mut ligands = Vec::new();
@@ -172,7 +213,58 @@ pub fn parse_set(file: &str, text: &str, origin: &str) -> (Vec<LigandDef>, Vec<S
             Err((msg, sub)) => errors.push(at(Some(sub.unwrap_or(span)), Some(key), msg)),
         }
     }
-    (ligands, errors)
+    let mut substrates = Vec::new();
+    for spanned in raw.substrate {
+        let span = spanned.span();
+        let raw = spanned.into_inner();
+        let key = raw.key.get_ref().clone();
+        match convert_substrate(raw, origin) {
+            Ok(d) => substrates.push(d),
+            Err((msg, sub)) => errors.push(at(Some(sub.unwrap_or(span)), Some(key), msg)),
+        }
+    }
+    Set {
+        ligands,
+        substrates,
+        errors,
+    }
+}
+
+fn convert_substrate(raw: RawSubstrate, origin: &str) -> Result<SubstrateDef, Problem> {
+    let key_span = raw.key.span();
+    let key = raw.key.into_inner();
+    if key.is_empty() || key.chars().any(char::is_whitespace) {
+        return Err((
+            "the key must be one word with no spaces, as written in steps".into(),
+            Some(key_span),
+        ));
+    }
+    if !raw.hazards.is_empty() && raw.hazard_source.as_deref().is_none_or(str::is_empty) {
+        return Err((
+            "hazards need hazard_source (regulation, safety data sheet or \"from memory\")".into(),
+            Some(key_span),
+        ));
+    }
+    let structure =
+        Molecule::from_smiles(&raw.smiles).map_err(|e| (e.to_string(), Some(key_span.clone())))?;
+    if structure.star_count() > 0 {
+        return Err((
+            "a substrate is a free species: its SMILES has no '*'".into(),
+            Some(key_span),
+        ));
+    }
+    Ok(SubstrateDef {
+        key,
+        name: raw.name,
+        formula: raw.formula,
+        aliases: raw.aliases,
+        smiles: raw.smiles,
+        hazards: raw.hazards,
+        hazard_source: raw.hazard_source,
+        notes: raw.notes,
+        origin: origin.to_string(),
+        structure: std::sync::Arc::new(structure),
+    })
 }
 
 type Problem = (String, Option<Range<usize>>);
@@ -258,10 +350,20 @@ fn convert(raw: RawLigand, origin: &str) -> Result<LigandDef, Problem> {
         mode.note = m.note;
         modes.push(mode);
     }
-    Ok(LigandDef {
+    let structure = match &raw.smiles {
+        None => None,
+        Some(text) => {
+            Some(Molecule::from_smiles(text).map_err(|e| (e.to_string(), Some(key_span.clone())))?)
+        }
+    };
+    let mut def = LigandDef {
+        structure: None,
+        elements: None,
+        derived: false,
         key,
         name: raw.name,
         formula: raw.formula,
+        smiles: raw.smiles,
         aliases: raw.aliases,
         family: raw.family.clone(),
         field: raw.field,
@@ -274,7 +376,11 @@ fn convert(raw: RawLigand, origin: &str) -> Result<LigandDef, Problem> {
         modes,
         origin: origin.to_string(),
         traits: crate::chem::ligand::FamilyTraits::of(&raw.family),
-    })
+    };
+    if let Some(m) = structure {
+        def.set_structure(m);
+    }
+    Ok(def)
 }
 
 /// 1-based line and column of a byte offset.

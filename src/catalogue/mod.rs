@@ -7,12 +7,14 @@ mod search;
 use std::collections::HashMap;
 use std::hash::{BuildHasherDefault, Hasher};
 use std::path::{Path, PathBuf};
-use std::sync::Arc;
+use std::sync::{Arc, OnceLock};
 
 use fuzzy_matcher::skim::SkimMatcherV2;
 
 use crate::chem::formula::LigandLookup;
 use crate::chem::ligand::LigandDef;
+use crate::chem::molecule::Molecule;
+use crate::chem::species::SubstrateDef;
 
 pub use load::{parse_set, SetError, FAMILIES};
 pub use search::Hit;
@@ -35,6 +37,24 @@ pub struct Catalogue {
     matcher: SkimMatcherV2,
     /// Lower-case search text per ligand (see `search::haystack`).
     haystacks: Vec<String>,
+    substrates: Vec<Arc<SubstrateDef>>,
+    /// Substrate key or alias (without spaces) -> substrate index.
+    substrate_tokens: HashMap<String, usize>,
+    /// Hill formula and number of metal bonds -> ligands and substrates of that composition.
+    by_formula: HashMap<String, Vec<Entry>>,
+    /// Canonical SMILES of each ligand and substrate, worked out when first compared.
+    canon_ligands: Vec<OnceLock<String>>,
+    canon_substrates: Vec<OnceLock<String>>,
+}
+
+#[derive(Debug, Clone, Copy)]
+enum Entry {
+    Ligand(usize),
+    Substrate(usize),
+}
+
+fn formula_key(m: &Molecule) -> String {
+    format!("{}|{}", m.composition(), m.star_count())
 }
 
 impl Catalogue {
@@ -89,6 +109,7 @@ impl Catalogue {
     pub fn from_sets(bundled: Vec<(String, String)>, user: Vec<(String, String)>) -> Catalogue {
         let mut warnings = Vec::new();
         let mut ligands: Vec<LigandDef> = Vec::new();
+        let mut substrates: Vec<SubstrateDef> = Vec::new();
         for (is_user, (name, text)) in bundled
             .into_iter()
             .map(|s| (false, s))
@@ -99,9 +120,24 @@ impl Catalogue {
             } else {
                 format!("bundled:{}", name.trim_end_matches(".toml"))
             };
-            let (defs, errs) = load::parse_set(&name, &text, &origin);
-            warnings.extend(errs);
-            for d in defs {
+            let set = load::parse_set_all(&name, &text, &origin);
+            warnings.extend(set.errors);
+            for d in set.substrates {
+                match substrates.iter().position(|x| x.key == d.key) {
+                    Some(i) if is_user => substrates[i] = d,
+                    Some(_) => warnings.push(SetError {
+                        file: name.clone(),
+                        line: 0,
+                        column: 0,
+                        key: Some(d.key.clone()),
+                        message:
+                            "substrate key defined twice in the bundled sets; the first is kept"
+                                .into(),
+                    }),
+                    None => substrates.push(d),
+                }
+            }
+            for d in set.ligands {
                 match ligands.iter().position(|l| l.key == d.key) {
                     Some(i) if is_user => ligands[i] = d,
                     Some(_) => warnings.push(SetError {
@@ -155,7 +191,36 @@ impl Catalogue {
             });
         }
         let haystacks = ligands.iter().map(|l| search::haystack(l)).collect();
+        let substrates: Vec<Arc<SubstrateDef>> = substrates.into_iter().map(Arc::new).collect();
+        let mut substrate_tokens = HashMap::new();
+        for (i, d) in substrates.iter().enumerate() {
+            for t in std::iter::once(&d.key)
+                .chain(&d.aliases)
+                .chain([&d.formula])
+            {
+                if !t.chars().any(char::is_whitespace) {
+                    substrate_tokens.entry(t.clone()).or_insert(i);
+                }
+            }
+        }
+        let mut by_formula: HashMap<String, Vec<Entry>> = HashMap::new();
+        for (i, l) in ligands.iter().enumerate() {
+            if let Some(m) = &l.structure {
+                by_formula
+                    .entry(formula_key(m))
+                    .or_default()
+                    .push(Entry::Ligand(i));
+            }
+        }
+        for (i, d) in substrates.iter().enumerate() {
+            by_formula
+                .entry(formula_key(&d.structure))
+                .or_default()
+                .push(Entry::Substrate(i));
+        }
         Catalogue {
+            canon_ligands: (0..ligands.len()).map(|_| OnceLock::new()).collect(),
+            canon_substrates: (0..substrates.len()).map(|_| OnceLock::new()).collect(),
             ligands,
             tokens,
             by_first,
@@ -163,7 +228,43 @@ impl Catalogue {
             warnings,
             matcher: SkimMatcherV2::default(),
             haystacks,
+            substrates,
+            substrate_tokens,
+            by_formula,
         }
+    }
+
+    pub fn substrates(&self) -> &[Arc<SubstrateDef>] {
+        &self.substrates
+    }
+
+    /// Catalogue entries with the structure of `m` (same constitution, same metal bonds).
+    fn same_structure(&self, m: &Molecule) -> Vec<Entry> {
+        let candidates = self
+            .by_formula
+            .get(&formula_key(m))
+            .map_or(&[][..], Vec::as_slice);
+        if candidates.is_empty() {
+            return Vec::new();
+        }
+        let want = m.canonical_smiles();
+        candidates
+            .iter()
+            .copied()
+            .filter(|e| {
+                let have = match *e {
+                    Entry::Ligand(i) => self.canon_ligands[i].get_or_init(|| {
+                        self.ligands[i]
+                            .structure
+                            .as_ref()
+                            .map_or(String::new(), |s| s.canonical_smiles())
+                    }),
+                    Entry::Substrate(i) => self.canon_substrates[i]
+                        .get_or_init(|| self.substrates[i].structure.canonical_smiles()),
+                };
+                *have == want
+            })
+            .collect()
     }
 
     pub fn ligands(&self) -> &[Arc<LigandDef>] {
@@ -253,6 +354,26 @@ impl LigandLookup for Catalogue {
 
     fn suggest(&self, token: &str) -> Option<String> {
         search::suggest(self, token)
+    }
+
+    fn substrate(&self, token: &str) -> Option<&Arc<SubstrateDef>> {
+        self.substrate_tokens
+            .get(token)
+            .map(|&i| &self.substrates[i])
+    }
+
+    fn ligand_like(&self, m: &Molecule) -> Option<&Arc<LigandDef>> {
+        self.same_structure(m).into_iter().find_map(|e| match e {
+            Entry::Ligand(i) => Some(&self.ligands[i]),
+            Entry::Substrate(_) => None,
+        })
+    }
+
+    fn substrate_like(&self, m: &Molecule) -> Option<&Arc<SubstrateDef>> {
+        self.same_structure(m).into_iter().find_map(|e| match e {
+            Entry::Substrate(i) => Some(&self.substrates[i]),
+            Entry::Ligand(_) => None,
+        })
     }
 }
 

@@ -6,6 +6,7 @@ use std::sync::Arc;
 use super::element::{is_symbol_shaped, Element};
 use super::frac::push_int;
 use super::ligand::{ascii_label, BindingMode, LigandDef};
+use super::molecule::Composition;
 
 /// A ligand group bound in one mode, `count` times.
 #[derive(Debug, Clone)]
@@ -139,6 +140,19 @@ impl Complex {
             .enumerate()
             .flat_map(|(i, s)| s.ligands.iter().map(move |b| (Some(i), b)))
             .chain(self.shared.iter().map(|b| (None, b)))
+    }
+
+    /// Element counts of the whole complex (metals and every ligand), when every ligand has a
+    /// known structure; counter-ions and lattice solvent are not part of it.
+    pub fn composition(&self) -> Option<Composition> {
+        let mut c = Composition::default();
+        for s in &self.sites {
+            c.add(s.element.number, 1);
+        }
+        for (_, b) in self.all_ligands() {
+            c.add_all(b.ligand.composition()?, b.count);
+        }
+        Some(c)
     }
 
     /// Merge repeated groups and put everything in canonical order; a mononuclear complex keeps

@@ -177,6 +177,8 @@ pub struct MetalReport {
 pub struct Report {
     pub formula: String,
     pub charge: i32,
+    /// Element counts of the complex; None when a ligand has no structure on record.
+    pub composition: Option<super::molecule::Composition>,
     pub metals: Vec<MetalReport>,
     pub metal_metal_bonds: Option<u32>,
     pub cluster_valence_electrons: Frac,
@@ -538,6 +540,7 @@ pub fn count(complex: &Complex) -> Report {
     Report {
         formula: complex.formula(false),
         charge: complex.charge,
+        composition: complex.composition(),
         metals,
         metal_metal_bonds: view.bonds.map(|b| b.saturating_sub(three_centre.min(b))),
         cluster_valence_electrons: cve,

@@ -14,6 +14,8 @@ use std::sync::Arc;
 use super::complex::{BoundLigand, Complex, MetalSite};
 use super::element::{self, is_symbol_shaped, Element};
 use super::ligand::{normalize_label, LigandDef};
+use super::molecule::Molecule;
+use super::species::SubstrateDef;
 
 /// Where the parser finds ligands. The catalogue implements it; tests may use a small map.
 pub trait LigandLookup {
@@ -28,6 +30,18 @@ pub trait LigandLookup {
     ) -> Option<(&Arc<LigandDef>, usize)>;
     /// The nearest known token to an unknown one, for "did you mean".
     fn suggest(&self, token: &str) -> Option<String>;
+    /// The substrate or reagent whose key, formula or alias is exactly `token`.
+    fn substrate(&self, _token: &str) -> Option<&Arc<SubstrateDef>> {
+        None
+    }
+    /// The catalogue ligand with this structure (free species, or group with its `*`).
+    fn ligand_like(&self, _m: &Molecule) -> Option<&Arc<LigandDef>> {
+        None
+    }
+    /// The substrate with this structure.
+    fn substrate_like(&self, _m: &Molecule) -> Option<&Arc<SubstrateDef>> {
+        None
+    }
 }
 
 /// A formula that could not be read: what is wrong and where.

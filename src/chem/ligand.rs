@@ -3,7 +3,9 @@
 
 use serde::{Deserialize, Serialize};
 use std::fmt;
+use std::sync::Arc;
 
+use super::molecule::{Composition, Molecule};
 use super::ChemError;
 
 /// The CBC functions a ligand presents to the metal(s): L (2-electron dative), X (1-electron
@@ -256,6 +258,8 @@ pub struct LigandDef {
     pub key: String,
     pub name: String,
     pub formula: String,
+    /// OpenSMILES of the free or formally bound species; `*` marks a bond to the metal.
+    pub smiles: Option<String>,
     pub aliases: Vec<String>,
     pub family: String,
     pub field: Option<FieldClass>,
@@ -268,6 +272,15 @@ pub struct LigandDef {
     pub modes: Vec<BindingMode>,
     /// Which set it came from ("bundled:phosphorus", or a user file path).
     pub origin: String,
+    /// The structure read from `smiles`, when the ligand has one.
+    #[serde(skip)]
+    pub structure: Option<Arc<Molecule>>,
+    /// The structure's element counts, worked out once (every count reports them).
+    #[serde(skip)]
+    pub elements: Option<Composition>,
+    /// Made by a step or read from a condensed formula, not taken from the catalogue.
+    #[serde(skip)]
+    pub derived: bool,
     /// What the family implies, from `FamilyTraits::of(&family)`.
     #[serde(skip)]
     pub traits: FamilyTraits,
@@ -277,6 +290,17 @@ impl LigandDef {
     pub fn mode_index(&self, label: &str) -> Option<usize> {
         let label = normalize_label(label);
         self.modes.iter().position(|m| m.label == label)
+    }
+
+    /// Element counts of the ligand, when its structure is known.
+    pub fn composition(&self) -> Option<&Composition> {
+        self.elements.as_ref()
+    }
+
+    /// Give the ligand a structure (and with it a composition).
+    pub fn set_structure(&mut self, m: Molecule) {
+        self.elements = Some(m.composition());
+        self.structure = Some(Arc::new(m));
     }
 
     pub fn mode_labels(&self) -> String {

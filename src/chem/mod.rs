@@ -1,6 +1,7 @@
 //! The chemistry core: elements, ligands, complexes, the formula notation and electron
 //! counting. Pure: no terminal, no files, no clock.
 
+pub mod canon;
 pub mod cluster;
 pub mod complex;
 pub mod count;
@@ -10,9 +11,12 @@ pub mod fit;
 pub mod formula;
 pub mod frac;
 pub mod ligand;
+pub mod molecule;
+pub mod periodic;
 pub mod preview;
 pub mod screen;
 pub mod shape;
+pub mod species;
 pub mod spin;
 pub mod steps;
 pub mod sterics;

@@ -209,6 +209,10 @@ pub fn report_fields(buf: &mut Vec<u8>, r: &Report) {
     let mut o = Json::resume(buf);
     o.str("formula", &r.formula);
     o.int("charge", r.charge as i64);
+    match &r.composition {
+        Some(c) => o.str("composition", &c.to_string()),
+        None => o.null("composition"),
+    }
     o.array("metals", &r.metals, metal);
     match r.metal_metal_bonds {
         Some(b) => o.int("metal_metal_bonds", b as i64),

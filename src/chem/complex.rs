@@ -63,7 +63,11 @@ impl BoundLigand {
     fn shows_label(&self) -> bool {
         let m = self.mode();
         let terminal_modes = self.ligand.modes.iter().filter(|m| m.bridges == 1).count();
-        self.mode != 0 || m.hapticity().is_some() || m.bridges > 1 || terminal_modes > 1
+        self.mode != 0
+            || m.hapticity().is_some()
+            || m.bridges > 1
+            || terminal_modes > 1
+            || (self.ligand.derived && m.sites > 1)
     }
 
     /// Single-atom X or L ligands in their default mode (Cl, H, O) print without parentheses,

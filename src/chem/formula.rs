@@ -262,6 +262,17 @@ fn parse_body(body: &str, input: &str, lookup: &dyn LigandLookup) -> Result<Comp
         }
     }
     super::fit::fit_modes(&mut complex);
+    let mut read = Vec::new();
+    for (_, b) in complex.all_ligands() {
+        if b.ligand.derived && !read.contains(&b.ligand.key) {
+            read.push(b.ligand.key.clone());
+        }
+    }
+    for key in read {
+        complex.notes.push(format!(
+            "{key} is not in the catalogue: read from its formula as written"
+        ));
+    }
     Ok(complex)
 }
 
@@ -319,7 +330,7 @@ const ISOMER_PREFIXES: &[&str] = &["trans-", "cis-", "fac-", "mer-", "syn-", "an
 fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
     if input
         .bytes()
-        .all(|b| b.is_ascii() && b != b'\t' && b != b'=')
+        .all(|b| b.is_ascii() && b != b'\t' && b != b'=' && b != b'{')
     {
         return (Cow::Borrowed(input), None);
     }
@@ -328,7 +339,15 @@ fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
     let mut text = String::with_capacity(input.len());
     let mut cols = Vec::with_capacity(input.len());
     let mut in_super = false;
+    let mut in_smiles = false;
     for (col, c) in input.chars().enumerate() {
+        // SMILES in braces is copied as it is: its '=' and '#' are bonds
+        if c == '{' || c == '}' || in_smiles {
+            in_smiles = (in_smiles || c == '{') && c != '}';
+            text.push(c);
+            cols.push(col);
+            continue;
+        }
         // bonds drawn in a formula ("(CO)5W=C(OMe)Ph", "PhC≡CPh") add nothing to read
         if c == '=' || c == '≡' {
             continue;
@@ -882,7 +901,28 @@ impl<'a> Parser<'a> {
         }
         if let Some(&(label, _)) = labels.first() {
             if looks_like_label(label) && !rest.is_empty() {
-                return Err(self.unknown(rest_at, rest));
+                // a group the catalogue does not hold, by its condensed formula or SMILES
+                return match super::derived::read_written(rest.trim(), Some(label), self.lookup) {
+                    Ok(l) => self.with_labels(&l, &labels).map(Item::Ligand),
+                    Err(why) => {
+                        let mut e = self.unknown(rest_at, rest);
+                        if rest.starts_with('{') || why.contains("does not add up") {
+                            e.hint = Some(why);
+                        }
+                        Err(e)
+                    }
+                };
+            }
+        }
+        if content.starts_with('{')
+            || !content.starts_with('[') && element::symbol_prefix(content).is_none()
+        {
+            match super::derived::read_written(content, None, self.lookup) {
+                Ok(l) => return Ok(Item::Ligand(BoundLigand::new(l, 0, 1))),
+                Err(why) if content.starts_with('{') => {
+                    return Err(self.error(at, content.len(), why))
+                }
+                Err(_) => {}
             }
         }
         // a fragment in parentheses starts with its metal, "(CpFe(CO)2)": "(OPr)" is an

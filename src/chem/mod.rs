@@ -4,7 +4,9 @@
 pub mod canon;
 pub mod cluster;
 pub mod complex;
+pub mod condensed;
 pub mod count;
+pub mod derived;
 pub mod edit;
 pub mod element;
 pub mod fit;

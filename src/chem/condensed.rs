@@ -413,10 +413,10 @@ fn main_chain(b: &Builder) -> Vec<usize> {
 fn settle_bonds(m: &mut Molecule, free: &[bool], ends: &[usize]) -> Result<(), String> {
     let n = m.atoms.len();
     let mut valence: Vec<u8> = Vec::with_capacity(n);
-    for i in 0..n {
+    for (i, &is_free) in free.iter().enumerate().take(n) {
         let a = m.atoms[i];
         let used = m.bond_valence(i) + a.h + u8::from(ends.contains(&i));
-        if !free[i] {
+        if !is_free {
             valence.push(used);
             continue;
         }

@@ -60,13 +60,8 @@ fn make(m: &Molecule, lookup: &dyn LigandLookup) -> LigandDef {
             )
         }
     };
-    let word = match family {
-        "alkylidene" => "alkylidene",
-        "alkylidyne" => "alkylidyne",
-        f => f,
-    };
     let mut def = LigandDef {
-        name: format!("{word} {}", m.composition()),
+        name: format!("{family} {}", m.composition()),
         formula: key.clone(),
         smiles: Some(m.canonical_smiles()),
         aliases: Vec::new(),

@@ -13,10 +13,12 @@ use super::periodic;
 
 /// The ligand for `m`: the catalogue's, else one made from the structure.
 pub fn ligand_for(m: &Molecule, lookup: &dyn LigandLookup) -> Arc<LigandDef> {
-    if let Some(l) = lookup.ligand_like(m) {
+    let mut m = m.clone();
+    super::molecule::fold_hydrogens(&mut m);
+    if let Some(l) = lookup.ligand_like(&m) {
         return l.clone();
     }
-    Arc::new(make(m, lookup))
+    Arc::new(make(&m, lookup))
 }
 
 /// How a derived ligand is written: its condensed formula, or SMILES in braces when it has

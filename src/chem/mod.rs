@@ -16,6 +16,7 @@ pub mod ligand;
 pub mod molecule;
 pub mod periodic;
 pub mod preview;
+pub mod reagent;
 pub mod screen;
 pub mod shape;
 pub mod species;

@@ -267,6 +267,147 @@ impl Molecule {
             .collect()
     }
 
+    /// The atoms reachable from `from` without crossing bond `k`.
+    pub fn side(&self, from: usize, k: usize) -> Vec<usize> {
+        let mut seen = vec![false; self.atoms.len()];
+        let mut stack = vec![from];
+        seen[from] = true;
+        let mut out = vec![from];
+        while let Some(i) = stack.pop() {
+            for (bi, b) in self.bonds.iter().enumerate() {
+                if bi == k {
+                    continue;
+                }
+                if let Some(j) = b.other(i) {
+                    if !seen[j] {
+                        seen[j] = true;
+                        out.push(j);
+                        stack.push(j);
+                    }
+                }
+            }
+        }
+        out.sort_unstable();
+        out
+    }
+
+    /// The atoms in `keep` as a molecule of their own, with a `*` bonded to each atom listed
+    /// in `stars` (with the given order).
+    pub fn fragment(&self, keep: &[usize], stars: &[(usize, u8)]) -> Molecule {
+        let mut index = vec![usize::MAX; self.atoms.len()];
+        let mut m = Molecule::default();
+        for &i in keep {
+            if i < self.atoms.len() && index[i] == usize::MAX {
+                index[i] = m.add_atom(self.atoms[i]);
+            }
+        }
+        for b in &self.bonds {
+            if index[b.a] != usize::MAX && index[b.b] != usize::MAX {
+                m.add_bond(index[b.a], index[b.b], b.order);
+            }
+        }
+        for &(i, order) in stars {
+            if index.get(i).is_some_and(|&x| x != usize::MAX) {
+                let s = m.add_atom(Atom::star());
+                m.add_bond(index[i], s, order);
+            }
+        }
+        m
+    }
+
+    /// Break bond `k`: the two groups it leaves, each with a `*` where the bond was (the side
+    /// of the bond's first atom first); None when the bond is in a ring.
+    pub fn cut(&self, k: usize) -> Option<(Molecule, Molecule)> {
+        let b = *self.bonds.get(k)?;
+        let a_side = self.side(b.a, k);
+        if a_side.binary_search(&b.b).is_ok() {
+            return None;
+        }
+        let b_side = self.side(b.b, k);
+        Some((
+            self.fragment(&a_side, &[(b.a, b.order)]),
+            self.fragment(&b_side, &[(b.b, b.order)]),
+        ))
+    }
+
+    /// Give aromatic bonds single and double orders (a Kekulé structure), so that a step can
+    /// break the ring's π system; false when no such assignment exists.
+    pub fn kekulize(&mut self) -> bool {
+        let n = self.atoms.len();
+        // atoms that need one double bond inside the aromatic system
+        let need: Vec<bool> = (0..n)
+            .map(|i| {
+                let a = self.atoms[i];
+                if !a.aromatic {
+                    return false;
+                }
+                let exo_double = self.neighbors(i).any(|(_, o)| o == 2 || o == 3);
+                let used = self.bond_valence(i) + a.h;
+                let target = periodic::valences_charged(a.z, a.charge)
+                    .into_iter()
+                    .find(|&v| v > used)
+                    .unwrap_or(used);
+                !exo_double && target == used + 1
+            })
+            .collect();
+        let aromatic: Vec<usize> = (0..self.bonds.len())
+            .filter(|&k| self.bonds[k].order == AROMATIC)
+            .collect();
+        let mut matched = vec![false; n];
+        let mut double = vec![false; self.bonds.len()];
+        fn solve(
+            m: &Molecule,
+            need: &[bool],
+            aromatic: &[usize],
+            matched: &mut Vec<bool>,
+            double: &mut Vec<bool>,
+            budget: &mut u32,
+        ) -> bool {
+            *budget = budget.saturating_sub(1);
+            if *budget == 0 {
+                return false;
+            }
+            let Some(i) = (0..need.len()).find(|&i| need[i] && !matched[i]) else {
+                return true;
+            };
+            for &k in aromatic {
+                let Some(j) = m.bonds[k].other(i) else {
+                    continue;
+                };
+                if need[j] && !matched[j] {
+                    matched[i] = true;
+                    matched[j] = true;
+                    double[k] = true;
+                    if solve(m, need, aromatic, matched, double, budget) {
+                        return true;
+                    }
+                    matched[i] = false;
+                    matched[j] = false;
+                    double[k] = false;
+                }
+            }
+            false
+        }
+        let mut budget = 100_000;
+        if !solve(
+            self,
+            &need,
+            &aromatic,
+            &mut matched,
+            &mut double,
+            &mut budget,
+        ) {
+            return false;
+        }
+        for &k in &aromatic {
+            self.bonds[k].order = if double[k] { 2 } else { 1 };
+        }
+        for a in &mut self.atoms {
+            a.aromatic = false;
+        }
+        true
+    }
+
     /// Read OpenSMILES. Stereo marks are read and dropped (nonet needs the constitution only);
     /// explicit hydrogens on heavy atoms become counts.
     pub fn from_smiles(text: &str) -> Result<Molecule, SmilesError> {
@@ -311,6 +452,11 @@ impl Molecule {
 
     /// SMILES in a canonical form: equal strings mean the same constitution.
     pub fn canonical_smiles(&self) -> String {
+        if self.atoms.iter().any(|a| a.z == periodic::H) {
+            let mut m = self.clone();
+            fold_hydrogens(&mut m);
+            return super::canon::canonical_smiles(&m);
+        }
         super::canon::canonical_smiles(self)
     }
 
@@ -395,7 +541,7 @@ fn from_purr(graph: &[purr::graph::Atom]) -> Molecule {
 }
 
 /// Neutral hydrogen atoms bonded to one heavy atom become that atom's hydrogen count.
-fn fold_hydrogens(m: &mut Molecule) {
+pub fn fold_hydrogens(m: &mut Molecule) {
     let mut gone = Vec::new();
     for i in 0..m.atoms.len() {
         let a = m.atoms[i];

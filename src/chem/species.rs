@@ -32,17 +32,29 @@ pub struct SubstrateDef {
 pub struct Species {
     pub name: String,
     pub structure: Molecule,
+    /// Free electrons (1 for the e- of a one-electron oxidation; 0 for every molecule).
+    pub electrons: i32,
     pub hazards: Vec<String>,
     pub hazard_source: Option<String>,
 }
 
 impl Species {
-    pub fn new(name: impl Into<String>, structure: Molecule) -> Species {
+    pub fn new(name: impl Into<String>, mut structure: Molecule) -> Species {
+        super::molecule::fold_hydrogens(&mut structure);
         Species {
             name: name.into(),
             structure,
+            electrons: 0,
             hazards: Vec::new(),
             hazard_source: None,
+        }
+    }
+
+    /// An electron, as a one-electron oxidation gives off or a reduction takes in.
+    pub fn electron() -> Species {
+        Species {
+            electrons: 1,
+            ..Species::new("e-", Molecule::default())
         }
     }
 
@@ -51,13 +63,14 @@ impl Species {
         Species {
             name: def.key.clone(),
             structure: (*def.structure).clone(),
+            electrons: 0,
             hazards: def.hazards.clone(),
             hazard_source: def.hazard_source.clone(),
         }
     }
 
     pub fn charge(&self) -> i32 {
-        self.structure.charge()
+        self.structure.charge() - self.electrons
     }
 
     pub fn composition(&self) -> Composition {

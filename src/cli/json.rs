@@ -72,8 +72,49 @@ pub fn append_step(
         json_num(d),
         json_num(cn)
     );
+    buf.extend_from_slice(b",\"equation\":");
+    equation(buf, &o.equation);
+    buf.extend_from_slice(b",\"equation_text\":");
+    jsonw::string(buf, &o.equation_text());
+    buf.extend_from_slice(b",\"step_notes\":");
+    let _ = serde_json::to_writer(&mut *buf, &o.notes);
     jsonw::report_fields(buf, &o.after);
     buf.push(b'\n');
+}
+
+/// `{"enters": [species], "leaves": [species]}`.
+pub fn equation(buf: &mut Vec<u8>, eq: &crate::chem::species::Equation) {
+    buf.extend_from_slice(b"{\"enters\":");
+    terms(buf, &eq.enters);
+    buf.extend_from_slice(b",\"leaves\":");
+    terms(buf, &eq.leaves);
+    buf.push(b'}');
+}
+
+/// Species as `{"name","formula","smiles","charge","count"}`, with GHS statements when any.
+pub fn terms(buf: &mut Vec<u8>, list: &[crate::chem::species::Term]) {
+    #[derive(Serialize)]
+    struct S<'a> {
+        name: String,
+        formula: String,
+        smiles: String,
+        charge: i32,
+        count: u32,
+        #[serde(skip_serializing_if = "<[String]>::is_empty")]
+        ghs: &'a [String],
+    }
+    let items: Vec<S> = list
+        .iter()
+        .map(|t| S {
+            name: t.species.label(),
+            formula: t.species.formula(),
+            smiles: t.species.smiles(),
+            charge: t.species.charge(),
+            count: t.count,
+            ghs: &t.species.hazards,
+        })
+        .collect();
+    let _ = serde_json::to_writer(&mut *buf, &items);
 }
 
 fn json_num(f: crate::chem::Frac) -> String {

@@ -303,6 +303,34 @@ pub fn write_step(
         a.coordination_number,
         b.coordination_number
     );
+    let mut line = line;
+    line.push_str(&format!("  {}\n", o.equation_text()));
+    for n in &o.notes {
+        line.push_str(&format!("  note: {n}\n"));
+    }
+    let hazardous: Vec<&crate::chem::species::Term> = o
+        .equation
+        .enters
+        .iter()
+        .filter(|t| !t.species.hazards.is_empty())
+        .collect();
+    for t in &hazardous {
+        line.push_str(&format!(
+            "  ! {} entering: {} ({})\n",
+            t.species.name,
+            t.species.hazards.join(", "),
+            t.species
+                .hazard_source
+                .as_deref()
+                .unwrap_or("no source on record")
+        ));
+    }
+    if !hazardous.is_empty() {
+        line.push_str(
+            "  ! read the supplier's safety data sheet and follow local rules; nonet plans on \
+             paper and never judges whether a reaction is safe\n",
+        );
+    }
     if ascii {
         out.write_all(ascii_text(&line).as_bytes())?;
     } else {

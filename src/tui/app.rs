@@ -319,7 +319,7 @@ impl App {
             Action::StepOxidativeAddition => self.start_line(LineKind::Substrate),
             Action::StepReductiveElimination => self.pend_pair_step(PairStep::Elimination),
             Action::StepInsertion => self.pend_pair_step(PairStep::Insertion),
-            Action::StepBetaElimination => self.pend_on_selected(Step::BetaHydrideElimination),
+            Action::StepBetaElimination => self.pend_on_selected(Step::beta_hydride),
             Action::StepAlphaElimination => self.pend_on_selected(Step::AlphaElimination),
             Action::StepProtonation => self.set_pending(Pending::Step(Step::Protonation)),
             Action::StepDeprotonation => self.pend_on_selected(Step::Deprotonation),
@@ -642,6 +642,7 @@ impl App {
             PairStep::Insertion => Step::MigratoryInsertion {
                 inserting: key,
                 into: partner,
+                regio: None,
             },
         };
         self.set_pending(Pending::Step(step));

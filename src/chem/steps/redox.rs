@@ -1,0 +1,248 @@
+//! Steps that change the oxidation state or move protons: oxidative addition, reductive
+//! elimination, one-electron transfer, protonation and deprotonation at the metal,
+//! protonolysis, σ-bond metathesis.
+
+use super::ctx::{add, one_bond, recharge, remove, slot_in, structure, swap, Ctx};
+use super::ligands::hydride;
+use super::{refuse, StepError};
+use crate::chem::complex::Complex;
+use crate::chem::frac::Frac;
+use crate::chem::molecule::{Atom, Molecule};
+use crate::chem::periodic;
+use crate::chem::reagent::{electrophile, join, name_species};
+use crate::chem::species::Species;
+
+/// A-B adds across the metal as two X groups (Crabtree 2014, ch. 6).
+pub fn oxidative_addition(cx: &mut Ctx, substrate: &str) -> Result<Complex, StepError> {
+    let r = cx.reagent(substrate)?;
+    let Some((ga, gb)) = r.split.clone() else {
+        return refuse(format!(
+            "nonet finds no bond in {} that a metal adds across; write the two groups as A-B \
+             (Me-I, H-SiEt3)",
+            r.species.name
+        ));
+    };
+    cx.needs_two_d("oxidative addition")?;
+    cx.needs_open_site("oxidative addition")?;
+    let la = cx.made(&ga);
+    let lb = cx.made(&gb);
+    cx.enters(r.species);
+    let once = add(cx.c, &la, 0)?;
+    add(&once, &lb, 0)
+}
+
+/// Two X groups join and leave as one molecule (Crabtree 2014, ch. 6).
+pub fn reductive_elimination(cx: &mut Ctx, a: &str, b: &str) -> Result<Complex, StepError> {
+    let sa = cx.slot(a)?;
+    let ba = cx.group(sa)?;
+    let Some((ma, _)) = one_bond(ba) else {
+        return refuse(format!(
+            "reductive elimination joins two X-type groups; {} is {}",
+            ba.ligand.key,
+            ba.mode().class
+        ));
+    };
+    let once = remove(cx.c, sa)?;
+    let sb = slot_in(&once, b, cx.lookup).map_err(|_| {
+        StepError::Refused(format!(
+            "reductive elimination needs two X-type groups on the metal: there is no {}{}",
+            if ba.ligand.key == b { "second " } else { "" },
+            b
+        ))
+    })?;
+    let bb = once
+        .group(sb)
+        .ok_or_else(|| StepError::Refused("no such ligand".into()))?;
+    let Some((mb, _)) = one_bond(bb) else {
+        return refuse(format!(
+            "reductive elimination joins two X-type groups; {} is {}",
+            bb.ligand.key,
+            bb.mode().class
+        ));
+    };
+    let product = join(ma, mb);
+    let name = joined_name(&product, &ba.ligand.key, &bb.ligand.key, cx);
+    cx.leaves(Species::new(name, product));
+    remove(&once, sb)
+}
+
+/// The name of A-B made by joining two groups: the catalogue's, "H2", a hydrocarbon's
+/// formula, else "A-B".
+pub fn joined_name(m: &Molecule, a: &str, b: &str, cx: &Ctx) -> String {
+    if let Some(def) = cx.lookup.substrate_like(m) {
+        return def.key.clone();
+    }
+    let only_ch = m
+        .atoms
+        .iter()
+        .all(|x| matches!(x.z, periodic::C | periodic::H))
+        && !m.atoms.iter().any(|x| x.aromatic);
+    if only_ch {
+        return m.composition().to_string();
+    }
+    format!("{a}-{b}")
+}
+
+/// One electron leaves (oxidation, +1) or comes in (reduction, -1).
+pub fn electron_transfer(cx: &mut Ctx, delta: i32) -> Result<Complex, StepError> {
+    if delta > 0 {
+        cx.leaves(Species::electron());
+    } else {
+        cx.enters(Species::electron());
+    }
+    recharge(cx.c, delta)
+}
+
+/// A proton binds at the metal as a hydride: the metal is oxidized by two.
+pub fn protonation(cx: &mut Ctx) -> Result<Complex, StepError> {
+    let d = cx.d()?;
+    if d < Frac::int(2) {
+        return refuse(format!(
+            "protonation at the metal takes two d electrons; the metal is d{d}"
+        ));
+    }
+    let h = cx.made(&hydride());
+    cx.enters(proton());
+    recharge(&add(cx.c, &h, 0)?, 1)
+}
+
+/// A hydride leaves as a proton.
+pub fn deprotonation(cx: &mut Ctx, token: &str) -> Result<Complex, StepError> {
+    let slot = cx.slot(token)?;
+    let b = cx.group(slot)?;
+    let is_h = structure(b)
+        .map(|m| {
+            m.atoms.iter().filter(|a| !a.is_star()).count() == 1
+                && m.atoms.iter().any(|a| a.z == periodic::H)
+        })
+        .unwrap_or(false);
+    if !is_h {
+        return refuse("deprotonation at the metal removes a hydride (H) as H+");
+    }
+    cx.leaves(proton());
+    recharge(&remove(cx.c, slot)?, -1)
+}
+
+pub fn proton() -> Species {
+    let mut m = Molecule::default();
+    let mut h = Atom::new(periodic::H, 0);
+    h.charge = 1;
+    m.add_atom(h);
+    Species::new("H+", m)
+}
+
+/// An acid cleaves M-R: R-H leaves; the acid's anion binds the metal, or stays outside as a
+/// counter-ion when it hardly coordinates (BF4-, BArF4-): M-R + H-Y -> M-Y + R-H.
+pub fn protonolysis(cx: &mut Ctx, group: &str, acid: &str) -> Result<Complex, StepError> {
+    let slot = cx.slot(group)?;
+    let b = cx.group(slot)?;
+    let Some((m, _)) = one_bond(b) else {
+        return refuse(format!(
+            "protonolysis cleaves an M-R bond of an X-type group; {} is {}",
+            b.ligand.key,
+            b.mode().class
+        ));
+    };
+    let r = cx.reagent(acid)?;
+    let Some(e) = electrophile(&r.species.structure) else {
+        return refuse(format!("{} gives no proton", r.species.name));
+    };
+    if !e.is_proton() {
+        return refuse(format!(
+            "{} gives {} rather than a proton; use electrophilic-attack",
+            r.species.name,
+            e.name()
+        ));
+    }
+    let alkane = join(m, &hydride());
+    let name = joined_name(&alkane, &b.ligand.key, "H", cx);
+    cx.enters(r.species.clone());
+    cx.leaves(Species::new(name, alkane));
+    let mut product = remove(cx.c, slot)?;
+    let mut bound_anion = false;
+    for y in e.rest {
+        if y.charge() < 0 && !bound_anion {
+            if let Some(g) = coordinating(&y) {
+                let l = cx.made(&g);
+                product = add(&product, &l, 0)?;
+                bound_anion = true;
+                continue;
+            }
+        }
+        let name = name_species(&y, None, cx.lookup);
+        cx.leaves(Species::new(name, y));
+    }
+    if !bound_anion {
+        cx.note("the acid's anion hardly coordinates: it stays outside as the counter-ion");
+        product = recharge(&product, 1)?;
+    }
+    Ok(product)
+}
+
+/// The group an anion forms at a metal, unless it is a weakly coordinating anion (the charge
+/// on a central B, Al, P, As or Sb holding four or more groups).
+fn coordinating(y: &Molecule) -> Option<Molecule> {
+    if y.charge() != -1 {
+        return None;
+    }
+    let at = (0..y.atoms.len()).find(|&i| y.atoms[i].charge < 0)?;
+    let a = y.atoms[at];
+    if matches!(a.z, 5 | 13 | 15 | 33 | 51) && y.heavy_neighbors(at).len() >= 4 {
+        return None;
+    }
+    let mut g = y.clone();
+    g.atoms[at].charge = 0;
+    let s = g.add_atom(Atom::star());
+    g.add_bond(at, s, 1);
+    Some(g)
+}
+
+/// M-R + A-B -> M-A + R-B through a four-centre transition state, at d0 metals that cannot
+/// add oxidatively (Crabtree 2014, ch. 6; Hartwig 2010, ch. 6).
+pub fn sigma_bond_metathesis(
+    cx: &mut Ctx,
+    reagent: &str,
+    group: &str,
+) -> Result<Complex, StepError> {
+    let slot = cx.slot(group)?;
+    let b = cx.group(slot)?;
+    let Some((m, _)) = one_bond(b) else {
+        return refuse(format!(
+            "σ-bond metathesis exchanges an X-type group; {} is {}",
+            b.ligand.key,
+            b.mode().class
+        ));
+    };
+    let d = cx.d()?;
+    if d != Frac::ZERO {
+        return refuse(format!(
+            "σ-bond metathesis is the path of d0 metals, which cannot add oxidatively; this \
+             metal is d{d}: use oxidative-addition and reductive-elimination"
+        ));
+    }
+    let r = cx.reagent(reagent)?;
+    let Some((ga, gb)) = r.split.clone() else {
+        return refuse(format!(
+            "nonet finds no σ bond in {} to exchange; write it as A-B with A the group that \
+             goes to the metal",
+            r.species.name
+        ));
+    };
+    let is_h = |g: &Molecule| {
+        g.atoms.iter().filter(|a| !a.is_star()).count() == 1
+            && g.atoms.iter().any(|a| a.z == periodic::H)
+    };
+    // the hydrogen goes to the departing group (R-H forms); written A-B puts A on the metal
+    let (to_metal, to_r) = if r.split_written || !is_h(&ga) || is_h(&gb) {
+        (ga, gb)
+    } else {
+        (gb, ga)
+    };
+    let la = cx.made(&to_metal);
+    let out = join(m, &to_r);
+    let kb = cx.made(&to_r).key.clone();
+    let name = joined_name(&out, &b.ligand.key, &kb, cx);
+    cx.enters(r.species);
+    cx.leaves(Species::new(name, out));
+    swap(cx.c, slot, &la, 0)
+}

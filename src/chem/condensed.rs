@@ -580,6 +580,35 @@ impl Printer<'_> {
         None
     }
 
+    /// Whether atom c lies on a ring (two of its neighbours other than `parent` meet
+    /// without passing through c).
+    fn in_ring(&self, c: usize, parent: usize) -> bool {
+        let nbrs: Vec<usize> = self
+            .m
+            .heavy_neighbors(c)
+            .into_iter()
+            .filter(|&j| j != parent)
+            .collect();
+        for (k, &start) in nbrs.iter().enumerate() {
+            let mut seen = vec![false; self.m.atoms.len()];
+            seen[c] = true;
+            seen[start] = true;
+            let mut stack = vec![start];
+            while let Some(x) = stack.pop() {
+                for y in self.m.heavy_neighbors(x) {
+                    if x != start && nbrs[..k].contains(&y) || nbrs[k + 1..].contains(&y) {
+                        return true;
+                    }
+                    if !seen[y] {
+                        seen[y] = true;
+                        stack.push(y);
+                    }
+                }
+            }
+        }
+        false
+    }
+
     /// The atoms beyond the bond parent-c, whether they hold a ring, and whether a ring
     /// leads back to the parent (then they are not a group of their own).
     fn subtree(&self, c: usize, parent: usize) -> (Vec<usize>, bool, bool) {
@@ -674,8 +703,13 @@ impl Printer<'_> {
                 .all(|&x| matches!(self.m.atoms[x].z, 1 | 6 | 9 | 17 | 35 | 53));
             let text = if Some(c) == next_on_main {
                 self.tree(c, Some(i), main, radical)?
-            } else if ring {
+            } else if ring && self.in_ring(c, i) {
                 self.key_of(c, i, &atoms)?
+            } else if ring {
+                match self.key_of(c, i, &atoms) {
+                    Some(k) => k,
+                    None => self.tree(c, Some(i), None, radical)?,
+                }
             } else if plain {
                 self.tree(c, Some(i), None, radical)?
             } else {

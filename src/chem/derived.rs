@@ -173,7 +173,23 @@ pub fn read_written(
     };
     let m = match text.strip_prefix('{').and_then(|t| t.strip_suffix('}')) {
         Some(smiles) => Molecule::from_smiles(smiles).map_err(|e| e.to_string())?,
-        None => read_group(text, lookup, attach)?,
+        None => match read_group(text, lookup, attach) {
+            Ok(m) => m,
+            // a free molecule without a prefix (CH2CHCH2CH2CH3): an η-bound π ligand when it
+            // has a multiple bond and no atom short of bonds
+            Err(why) if label.is_none() => {
+                let m = read_group(text, lookup, Attach::None).map_err(|_| why)?;
+                let closed = super::species::open_valence_atoms(&m).is_empty();
+                let pi = m.bonds.iter().any(|b| b.order == 2 || b.order == 3);
+                if !(closed && pi) {
+                    return Err(format!(
+                        "'{text}' is neither a one-bond group nor an alkene"
+                    ));
+                }
+                return Ok(ligand_for(&m, lookup));
+            }
+            Err(why) => return Err(why),
+        },
     };
     if m.atoms.iter().all(|a| a.is_star()) {
         return Err("a group with no atoms".into());

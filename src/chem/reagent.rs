@@ -529,6 +529,18 @@ pub fn name_species(m: &Molecule, first: Option<&str>, lookup: &dyn LigandLookup
             }
         }
     }
+    // an anion named as the group it is on a metal: OTf-, OAc-, Cl-
+    if m.charge() == -1 && m.components().len() == 1 {
+        if let Some(at) = (0..m.atoms.len()).find(|&i| m.atoms[i].charge < 0) {
+            let mut g = m.clone();
+            g.atoms[at].charge = 0;
+            let s = g.add_atom(Atom::star());
+            g.add_bond(at, s, 1);
+            if let Some(l) = lookup.ligand_like(&g) {
+                return l.key.clone();
+            }
+        }
+    }
     central_name(m, first, lookup).unwrap_or_else(|| m.composition().to_string())
 }
 
@@ -638,12 +650,15 @@ fn central_name(m: &Molecule, first: Option<&str>, lookup: &dyn LigandLookup) ->
 /// has digits or more than one capital.
 fn bracket(name: &str, n: usize) -> String {
     let capitals = name.chars().filter(char::is_ascii_uppercase).count();
-    let plain = capitals <= 1 && !name.chars().any(|c| c.is_ascii_digit());
-    let mut s = if plain || n == 1 && capitals <= 1 {
-        name.to_string()
-    } else {
-        format!("({name})")
-    };
+    let plain = capitals <= 1
+        && !name.chars().any(|c| c.is_ascii_digit())
+        && name.starts_with(|c: char| c.is_ascii_uppercase());
+    let mut s =
+        if plain || n == 1 && capitals <= 1 && name.starts_with(|c: char| c.is_ascii_uppercase()) {
+            name.to_string()
+        } else {
+            format!("({name})")
+        };
     if n > 1 {
         s.push_str(&n.to_string());
     }

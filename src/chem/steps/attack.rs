@@ -1,7 +1,7 @@
 //! Steps where a reagent from outside acts on the complex: nucleophilic and electrophilic
 //! attack on ligands, transmetalation, and concerted metalation-deprotonation.
 
-use super::ctx::{one_bond, recharge, structure, swap, Ctx};
+use super::ctx::{one_bond, recharge, structure, swap, x_mode, Ctx};
 use super::{refuse, StepError};
 use crate::chem::complex::Complex;
 use crate::chem::molecule::{Atom, Molecule, AROMATIC};
@@ -402,7 +402,7 @@ pub fn transmetalation(
     ));
     cx.enters(r.species.clone());
     cx.leaves(Species::new(name, byproduct));
-    swap(cx.c, slot, &lr, 0)
+    swap(cx.c, slot, &lr, x_mode(&lr))
 }
 
 /// Concerted metalation-deprotonation: a bound carboxylate or carbonate takes the proton of a
@@ -484,5 +484,5 @@ pub fn cmd(cx: &mut Ctx, substrate: &str, base: &str) -> Result<Complex, StepErr
     let l = cx.made(&group);
     cx.enters(r.species.clone());
     cx.leaves(Species::new(name, acid));
-    recharge(&swap(cx.c, slot, &l, 0)?, -q)
+    recharge(&swap(cx.c, slot, &l, x_mode(&l))?, -q)
 }

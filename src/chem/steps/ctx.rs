@@ -302,15 +302,34 @@ fn edit(c: &Complex, e: &Edit) -> Result<Complex, StepError> {
         .map_err(|e| StepError::Refused(e.to_string()))
 }
 
-/// A ligand with one single σ bond to the metal (an X group such as H, Me, Ph, Cl).
-pub fn one_bond(b: &BoundLigand) -> Option<(&Molecule, usize)> {
+/// The mode in which a ligand binds as a plain X group (κ1-OAc rather than κ2), else its
+/// default: a group a step hands to the metal takes one site.
+pub fn x_mode(l: &LigandDef) -> usize {
+    l.modes
+        .iter()
+        .position(|m| m.class.x == 1 && m.class.l == 0 && m.class.z == 0 && m.bridges == 1)
+        .unwrap_or(0)
+}
+
+/// A ligand with one single σ bond to the metal (an X group such as H, Me, Ph, Cl), with
+/// its structure as bound: an η1-allyl or σ-benzyl gets its `*` on the atom the radical
+/// form leaves short of a bond.
+pub fn one_bond(b: &BoundLigand) -> Option<(Molecule, usize)> {
     let m = b.ligand.structure.as_deref()?;
     let class = b.mode().class;
     if class.x != 1 || class.l != 0 {
         return None;
     }
     match m.metal_bonds()[..] {
-        [(at, 1)] => Some((m, at)),
+        [(at, 1)] => Some((m.clone(), at)),
+        [] => {
+            let open = crate::chem::species::open_valence_atoms(m);
+            let [at] = open[..] else { return None };
+            let mut g = m.clone();
+            let s = g.add_atom(crate::chem::molecule::Atom::star());
+            g.add_bond(at, s, 1);
+            Some((g, at))
+        }
         _ => None,
     }
 }

@@ -2,7 +2,7 @@
 //! SO2, 1,2-insertion of alkenes, alkynes and CO2, carbene insertion, deinsertion, and α- and
 //! β-eliminations (Crabtree 2014, ch. 7; Hartwig 2010, ch. 9-10).
 
-use super::ctx::{add, one_bond, remove, slot_in, structure, swap, Ctx};
+use super::ctx::{add, one_bond, remove, slot_in, structure, swap, x_mode, Ctx};
 use super::ligands::hydride;
 use super::redox::joined_name;
 use super::{refuse, Regio, StepError};
@@ -163,7 +163,7 @@ pub fn migratory_insertion(
                     .unwrap_or(at);
                 loosen(&mut g, at, partner);
             }
-            attach(&mut g, at, mr);
+            attach(&mut g, at, &mr);
             star(&mut g, at, 1);
         }
         Unsat::Carbene(c) => {
@@ -173,7 +173,7 @@ pub fn migratory_insertion(
                 .position(|b| b.other(c).is_some_and(|x| g.atoms[x].is_star()))
                 .unwrap_or(0);
             g.bonds[s].order = 1;
-            attach(&mut g, c, mr);
+            attach(&mut g, c, &mr);
         }
         Unsat::Across { a, b } => {
             let carbonyl = g.atoms[b].z == periodic::O;
@@ -213,7 +213,7 @@ pub fn migratory_insertion(
                 }
             };
             loosen(&mut g, a, b);
-            attach(&mut g, r_end, mr);
+            attach(&mut g, r_end, &mr);
             star(&mut g, metal_end, 1);
         }
     }
@@ -277,7 +277,7 @@ pub fn deinsertion(cx: &mut Ctx, token: &str) -> Result<Complex, StepError> {
     }
     let lu = cx.made(&unsat);
     let lr = cx.made(&r);
-    let once = swap(cx.c, slot, &lr, 0)?;
+    let once = swap(cx.c, slot, &lr, x_mode(&lr))?;
     add(&once, &lu, 0)
 }
 
@@ -327,7 +327,10 @@ pub fn beta_elimination(
                 }
                 let mut g = m.clone();
                 g.strip_stars();
-                let (a2, b2) = (alpha - stars_before(m, alpha), beta - stars_before(m, beta));
+                let (a2, b2) = (
+                    alpha - stars_before(&m, alpha),
+                    beta - stars_before(&m, beta),
+                );
                 g.atoms[b2].h -= 1;
                 if let Some(k) = g.bond_between(a2, b2) {
                     g.bonds[k].order = 2;
@@ -399,10 +402,10 @@ pub fn beta_elimination(
     }
     cx.needs_open_site("β-elimination")?;
     let m0 = cx.metal()?;
-    if kind == Beta::Hydride && m0.target == 16 && m0.electron_count >= Frac::int(16) {
+    if m0.target == 16 && m0.electron_count >= Frac::int(16) {
         return refuse(
-            "a 16-e square-planar complex has no cis site for the β-hydrogen: a ligand must \
-             leave first (Whitesides; Crabtree 2014, ch. 7)",
+            "a 16-e square-planar complex has no cis site for the β atom's group: a ligand \
+             must leave first (Whitesides; Crabtree 2014, ch. 7)",
         );
     }
     let names: Vec<String> = distinct
@@ -472,10 +475,10 @@ pub fn beta_elimination(
     let chosen = distinct.swap_remove(pick);
     let moving = cx.made(&chosen.moving);
     let carbonyl = !matches!(m.atoms[alpha].z, periodic::C);
-    let once = swap(cx.c, slot, &moving, 0)?;
+    let once = swap(cx.c, slot, &moving, x_mode(&moving))?;
     if carbonyl {
         // a ketone, aldehyde or imine from an alkoxo or amido leaves the metal
-        let name = cx.made(&chosen.alkene).key.clone();
+        let name = crate::chem::reagent::name_species(&chosen.alkene, None, cx.lookup);
         cx.leaves(Species::new(name, chosen.alkene));
         return Ok(once);
     }
@@ -532,7 +535,7 @@ pub fn alpha_elimination(cx: &mut Ctx, token: &str) -> Result<Complex, StepError
             .group(s2)
             .ok_or_else(|| StepError::Refused("no such ligand".into()))?;
         let (g2, _) = one_bond(b2).ok_or_else(|| StepError::Refused("no alkyl".into()))?;
-        let alkane = join(g2, &hydride());
+        let alkane = join(&g2, &hydride());
         let name = joined_name(&alkane, &b2.ligand.key, "H", cx);
         cx.leaves(Species::new(name, alkane));
         cx.note("α-abstraction: the metal is d0, so a second alkyl takes the α-hydrogen");

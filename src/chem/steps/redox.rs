@@ -2,7 +2,7 @@
 //! elimination, one-electron transfer, protonation and deprotonation at the metal,
 //! protonolysis, σ-bond metathesis.
 
-use super::ctx::{add, one_bond, recharge, remove, slot_in, structure, swap, Ctx};
+use super::ctx::{add, one_bond, recharge, remove, slot_in, structure, swap, x_mode, Ctx};
 use super::ligands::hydride;
 use super::{refuse, StepError};
 use crate::chem::complex::Complex;
@@ -27,8 +27,8 @@ pub fn oxidative_addition(cx: &mut Ctx, substrate: &str) -> Result<Complex, Step
     let la = cx.made(&ga);
     let lb = cx.made(&gb);
     cx.enters(r.species);
-    let once = add(cx.c, &la, 0)?;
-    add(&once, &lb, 0)
+    let once = add(cx.c, &la, x_mode(&la))?;
+    add(&once, &lb, x_mode(&lb))
 }
 
 /// Two X groups join and leave as one molecule (Crabtree 2014, ch. 6).
@@ -60,7 +60,7 @@ pub fn reductive_elimination(cx: &mut Ctx, a: &str, b: &str) -> Result<Complex, 
             bb.mode().class
         ));
     };
-    let product = join(ma, mb);
+    let product = join(&ma, &mb);
     let name = joined_name(&product, &ba.ligand.key, &bb.ligand.key, cx);
     cx.leaves(Species::new(name, product));
     remove(&once, sb)
@@ -154,7 +154,7 @@ pub fn protonolysis(cx: &mut Ctx, group: &str, acid: &str) -> Result<Complex, St
             e.name()
         ));
     }
-    let alkane = join(m, &hydride());
+    let alkane = join(&m, &hydride());
     let name = joined_name(&alkane, &b.ligand.key, "H", cx);
     cx.enters(r.species.clone());
     cx.leaves(Species::new(name, alkane));
@@ -164,7 +164,7 @@ pub fn protonolysis(cx: &mut Ctx, group: &str, acid: &str) -> Result<Complex, St
         if y.charge() < 0 && !bound_anion {
             if let Some(g) = coordinating(&y) {
                 let l = cx.made(&g);
-                product = add(&product, &l, 0)?;
+                product = add(&product, &l, x_mode(&l))?;
                 bound_anion = true;
                 continue;
             }
@@ -239,10 +239,10 @@ pub fn sigma_bond_metathesis(
         (gb, ga)
     };
     let la = cx.made(&to_metal);
-    let out = join(m, &to_r);
+    let out = join(&m, &to_r);
     let kb = cx.made(&to_r).key.clone();
     let name = joined_name(&out, &b.ligand.key, &kb, cx);
     cx.enters(r.species);
     cx.leaves(Species::new(name, out));
-    swap(cx.c, slot, &la, 0)
+    swap(cx.c, slot, &la, x_mode(&la))
 }

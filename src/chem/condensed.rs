@@ -89,6 +89,41 @@ pub fn substituent(l: &LigandDef) -> Option<&Molecule> {
     }
 }
 
+/// Whether `t` is written as main-group atoms with hydrogen counts only ("CHO", "CH2CH3").
+fn atom_like(t: &str) -> bool {
+    let b = t.as_bytes();
+    let mut i = 0;
+    while i < b.len() {
+        let two = t
+            .get(i..i + 2)
+            .filter(|s| s.as_bytes()[1].is_ascii_lowercase())
+            .and_then(periodic::number);
+        let z = match two {
+            Some(z) => {
+                i += 2;
+                z
+            }
+            None => match t.get(i..i + 1).and_then(periodic::number) {
+                Some(z) => {
+                    i += 1;
+                    z
+                }
+                None => return false,
+            },
+        };
+        if !main_group(z) {
+            return false;
+        }
+        if b.get(i) == Some(&b'H') && b.get(i + 1).is_none_or(|c| !c.is_ascii_lowercase()) {
+            i += 1;
+        }
+        while i < b.len() && b[i].is_ascii_digit() {
+            i += 1;
+        }
+    }
+    true
+}
+
 struct Reader<'a> {
     text: &'a str,
     lookup: &'a dyn LigandLookup,
@@ -163,6 +198,11 @@ impl Reader<'_> {
         let max = rest.len().min(32);
         for len in (2..=max).rev() {
             let Some(t) = rest.get(..len) else { continue };
+            // a token spelled as atoms with their hydrogens (CHO, CH3, OH) is read atom by
+            // atom, which gives the same group and never swallows the next atom's H
+            if atom_like(t) {
+                continue;
+            }
             if let Some(l) = self.lookup.exact(t).filter(|l| substituent(l).is_some()) {
                 // a group may not stop inside a count ("Me2" is Me twice, not M + e2)
                 let l = l.clone();

@@ -24,7 +24,13 @@ pub fn ligand_for(m: &Molecule, lookup: &dyn LigandLookup) -> Arc<LigandDef> {
 /// How a derived ligand is written: its condensed formula, or SMILES in braces when it has
 /// rings the catalogue does not name.
 pub fn key_of(m: &Molecule, lookup: &dyn LigandLookup) -> String {
-    print_group(m, lookup).unwrap_or_else(|| format!("{{{}}}", m.canonical_smiles()))
+    let smiles = || format!("{{{}}}", m.canonical_smiles());
+    match print_group(m, lookup) {
+        // a text the catalogue already uses for something else would read back as that
+        Some(k) if lookup.exact(&k.replace('=', "")).is_some() => smiles(),
+        Some(k) => k,
+        None => smiles(),
+    }
 }
 
 fn make(m: &Molecule, lookup: &dyn LigandLookup) -> LigandDef {

@@ -914,6 +914,14 @@ impl<'a> Parser<'a> {
                 };
             }
         }
+        // a word mode on a group the catalogue does not hold ("neutral-CHCH2CH3")
+        if let Some((word, body)) = content.split_once('-') {
+            if !word.is_empty() && word.chars().all(|c| c.is_ascii_lowercase()) {
+                if let Ok(l) = super::derived::read_written(body.trim(), Some(word), self.lookup) {
+                    return self.with_labels(&l, &[(word, at)]).map(Item::Ligand);
+                }
+            }
+        }
         if content.starts_with('{')
             || !content.starts_with('[') && element::symbol_prefix(content).is_none()
         {

@@ -89,6 +89,7 @@ pub fn nucleophilic(cx: &mut Ctx, nu: &str, target: &str) -> Result<Complex, Ste
     let n = nucleophile(cx, nu)?;
     let mut g = m.clone();
     let radical = crate::chem::species::open_valence_atoms(&m);
+    let hapto = b.mode().hapticity().unwrap_or(1);
     let (new_mode_note, product_group) = if class.x == 0 && m.star_count() == 0 {
         if let Some(c) = (0..g.atoms.len()).find(|&i| {
             g.atoms[i].z == periodic::C
@@ -105,7 +106,7 @@ pub fn nucleophilic(cx: &mut Ctx, nu: &str, target: &str) -> Result<Complex, Ste
             put(&mut g, c, &n.group);
             star(&mut g, c);
             ("acyl-type group", g)
-        } else if g.atoms.iter().any(|a| a.aromatic) {
+        } else if hapto >= 6 && g.atoms.iter().any(|a| a.aromatic) {
             // an arene: Nu adds exo to one ring carbon, leaving an η5-cyclohexadienyl
             if !g.kekulize() {
                 return refuse(format!("{key}: nonet cannot place the ring's double bonds"));
@@ -128,7 +129,8 @@ pub fn nucleophilic(cx: &mut Ctx, nu: &str, target: &str) -> Result<Complex, Ste
             put(&mut g, c, &n.group);
             ("η5-cyclohexadienyl", g)
         } else if let Some(k) = g.bonds.iter().position(|bd| {
-            (bd.order == 2 || bd.order == 3)
+            hapto == 2
+                && (bd.order == 2 || bd.order == 3)
                 && g.atoms[bd.a].z == periodic::C
                 && g.atoms[bd.b].z == periodic::C
         }) {
@@ -149,7 +151,7 @@ pub fn nucleophilic(cx: &mut Ctx, nu: &str, target: &str) -> Result<Complex, Ste
                  alkenes, alkynes, CO, isocyanides, arenes and allyls"
             ));
         }
-    } else if radical.len() == 1 && m.star_count() == 0 && class.x == 1 {
+    } else if radical.len() == 1 && m.star_count() == 0 && class.x == 1 && hapto == 3 {
         // η3-allyl (or a dienyl): Nu at a terminus, leaving a neutral alkene; the metal is
         // reduced by two (Tsuji-Trost)
         let t1 = radical[0];

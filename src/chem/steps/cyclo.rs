@@ -11,8 +11,11 @@ use crate::chem::molecule::{Atom, Molecule, AROMATIC};
 use crate::chem::periodic;
 use crate::chem::species::Species;
 
-/// The π bond of an alkene or alkyne (not aromatic).
+/// The π bond of an alkene or alkyne (not aromatic, not a radical such as allyl).
 fn pi_bond(m: &Molecule) -> Option<(usize, usize)> {
+    if !crate::chem::species::open_valence_atoms(m).is_empty() {
+        return None;
+    }
     match unsaturation(m)? {
         Unsat::Across { a, b } if m.atoms[a].z == periodic::C && m.atoms[b].z == periodic::C => {
             Some((a, b))

@@ -506,6 +506,11 @@ pub fn alpha_elimination(cx: &mut Ctx, token: &str) -> Result<Complex, StepError
     if m.atoms[alpha].h == 0 || m.atoms[alpha].z != periodic::C {
         return refuse(format!("{key} has no hydrogen on its α carbon"));
     }
+    if m.neighbors(alpha).any(|(_, o)| o != 1) {
+        return refuse(format!(
+            "{key}'s α carbon is already multiply bonded; α-elimination starts from an alkyl"
+        ));
+    }
     let mut ylidene = m.clone();
     ylidene.atoms[alpha].h -= 1;
     for bd in ylidene.bonds.iter_mut() {

@@ -93,6 +93,18 @@ pub fn abstraction(cx: &mut Ctx, token: &str, by: &str) -> Result<Complex, StepE
     }
     let group = structure(b)?.clone();
     let key = b.ligand.key.clone();
+    let single = match group.metal_bonds()[..] {
+        [(_, 1)] => true,
+        [] => crate::chem::species::open_valence_atoms(&group).len() == 1,
+        _ => false,
+    };
+    if b.mode().ionic_charge != -1 || !single {
+        return refuse(format!(
+            "abstraction takes a singly bound anionic ligand (halide, alkyl, hydride, \
+             carboxylate); {key} is {}",
+            class
+        ));
+    }
     let reagent = cx.reagent(by)?;
     let parts = reagent.species.structure.components();
     let acceptor = taker(&parts).ok_or_else(|| {

@@ -493,8 +493,17 @@ fn bond_score(m: &Molecule, a: usize, b: usize, x: Atom, y: Atom) -> u8 {
         }
     }
     if pair(1, periodic::C) {
-        let c = if zx == periodic::C { x } else { y };
-        return if c.aromatic { 40 } else { 30 };
+        // C-H of arenes and alkanes; an alkene or alkyne binds through its π bond instead
+        let ci = if zx == periodic::C { a } else { b };
+        let c = m.atoms[ci];
+        let unsaturated = m.bonds.iter().any(|bd| bd.order == 2 || bd.order == 3);
+        return if c.aromatic {
+            40
+        } else if unsaturated {
+            0
+        } else {
+            30
+        };
     }
     0
 }

@@ -273,3 +273,42 @@ mod tests {
         }
     }
 }
+
+/// One substrate: `{"key","name","formula","hill","smiles","charge","aliases","hazards",
+/// "hazard_source","notes","origin"}`.
+pub fn write_substrate(
+    out: &mut impl Write,
+    d: &crate::chem::species::SubstrateDef,
+) -> io::Result<()> {
+    #[derive(Serialize)]
+    struct Line<'a> {
+        key: &'a str,
+        name: &'a str,
+        formula: &'a str,
+        hill: String,
+        smiles: &'a str,
+        charge: i32,
+        aliases: &'a [String],
+        hazards: &'a [String],
+        hazard_source: Option<&'a str>,
+        notes: Option<&'a str>,
+        origin: &'a str,
+    }
+    serde_json::to_writer(
+        &mut *out,
+        &Line {
+            key: &d.key,
+            name: &d.name,
+            formula: &d.formula,
+            hill: d.structure.composition().to_string(),
+            smiles: &d.smiles,
+            charge: d.structure.charge(),
+            aliases: &d.aliases,
+            hazards: &d.hazards,
+            hazard_source: d.hazard_source.as_deref(),
+            notes: d.notes.as_deref(),
+            origin: &d.origin,
+        },
+    )?;
+    out.write_all(b"\n")
+}

@@ -220,6 +220,10 @@ pub enum Command {
         /// Print where user ligand sets are read from, and stop.
         #[arg(long)]
         paths: bool,
+        /// List the substrates and reagents steps take and give (MeI, PhB(OH)2, AgBF4, ...)
+        /// instead of ligands.
+        #[arg(long)]
+        substrates: bool,
     },
 }
 
@@ -348,9 +352,17 @@ where
             family,
             ascii,
         }),
-        Some(Command::Ligands { query, json, paths }) => {
+        Some(Command::Ligands {
+            query,
+            json,
+            paths,
+            substrates: list_substrates,
+        }) => {
             if paths {
                 return print_paths();
+            }
+            if list_substrates {
+                return substrates(&query.join(" "), json);
             }
             ligands(&query.join(" "), json, ascii)
         }
@@ -805,6 +817,38 @@ fn ligands(query: &str, json: bool, ascii: bool) -> anyhow::Result<Status> {
             json::write_ligand(&mut out, &h.ligand)?;
         } else {
             text::write_ligand(&mut out, &h.ligand, ascii)?;
+        }
+    }
+    out.flush()?;
+    Ok(Status::Ok)
+}
+
+/// The substrates and reagents whose key, name, formula or alias contains the query.
+fn substrates(query: &str, json: bool) -> anyhow::Result<Status> {
+    let cat = load_catalogue();
+    let q = query.to_lowercase();
+    let hits: Vec<_> = cat
+        .substrates()
+        .iter()
+        .filter(|d| {
+            q.is_empty()
+                || std::iter::once(&d.key)
+                    .chain([&d.name, &d.formula])
+                    .chain(&d.aliases)
+                    .any(|t| t.to_lowercase().contains(&q))
+        })
+        .collect();
+    if hits.is_empty() {
+        eprintln!("no substrate matches '{query}'");
+        return Ok(Status::Rejected);
+    }
+    let stdout = io::stdout();
+    let mut out = BufWriter::new(stdout.lock());
+    for d in hits {
+        if json {
+            json::write_substrate(&mut out, d)?;
+        } else {
+            text::write_substrate(&mut out, d)?;
         }
     }
     out.flush()?;

@@ -338,3 +338,30 @@ pub fn write_step(
     }
     write_report(out, &o.after.formula, &o.after, ascii)
 }
+
+/// One substrate: key, name, formula and structure, then its hazards on record.
+pub fn write_substrate(
+    out: &mut impl Write,
+    d: &crate::chem::species::SubstrateDef,
+) -> io::Result<()> {
+    writeln!(
+        out,
+        "{:<16} {}  ({}, {})",
+        d.key,
+        d.name,
+        d.structure.composition(),
+        d.smiles
+    )?;
+    if !d.hazards.is_empty() {
+        writeln!(
+            out,
+            "    hazards: {} ({})",
+            d.hazards.join(", "),
+            d.hazard_source.as_deref().unwrap_or("")
+        )?;
+    }
+    if let Some(n) = &d.notes {
+        writeln!(out, "    {n}")?;
+    }
+    Ok(())
+}

@@ -76,6 +76,11 @@ pub struct Preview {
     pub entering: Option<Arc<LigandDef>>,
     pub donor: Option<DonorShift>,
     pub mechanism: Option<Mechanism>,
+    /// A step's equation in one line, what nonet chose on the way, and the hazards on record
+    /// for what enters (name, GHS statements).
+    pub equation: Option<String>,
+    pub step_notes: Vec<String>,
+    pub entering_hazards: Vec<(String, Vec<String>)>,
 }
 
 impl Preview {
@@ -142,6 +147,9 @@ pub fn preview(
         entering,
         donor,
         mechanism,
+        equation: None,
+        step_notes: Vec::new(),
+        entering_hazards: Vec::new(),
     })
 }
 
@@ -159,5 +167,14 @@ pub fn from_step(before: &Complex, o: &Outcome) -> Preview {
         entering: None,
         donor: None,
         mechanism: None,
+        equation: Some(o.equation_text()),
+        step_notes: o.notes.clone(),
+        entering_hazards: o
+            .equation
+            .enters
+            .iter()
+            .filter(|t| !t.species.hazards.is_empty())
+            .map(|t| (t.species.name.clone(), t.species.hazards.clone()))
+            .collect(),
     }
 }

@@ -102,6 +102,20 @@ fn lines<'a>(app: &App, p: &Preview, t: &Theme) -> Vec<Line<'a>> {
             if changed { t.warn() } else { t.title() },
         ),
     ]));
+    if let Some(eq) = &p.equation {
+        out.push(row("equation", eq.clone(), t.text(), t));
+    }
+    for (name, codes) in &p.entering_hazards {
+        out.push(row(
+            "caution",
+            format!(
+                "! {name}: {}; consult the safety data sheet and local rules",
+                codes.join(" ")
+            ),
+            t.warn(),
+            t,
+        ));
+    }
     let sat_style = match b.saturation {
         Saturation::Saturated => t.good(),
         Saturation::Above18 => t.bad(),
@@ -213,6 +227,9 @@ fn lines<'a>(app: &App, p: &Preview, t: &Theme) -> Vec<Line<'a>> {
     }
     if let Some(m) = p.mechanism {
         out.push(row("mechanism", m.text().to_string(), t.text(), t));
+    }
+    for n in &p.step_notes {
+        out.push(row("note", n.clone(), t.dim(), t));
     }
     out
 }

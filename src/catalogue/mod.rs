@@ -13,7 +13,7 @@ use fuzzy_matcher::skim::SkimMatcherV2;
 
 use crate::chem::formula::LigandLookup;
 use crate::chem::ligand::LigandDef;
-use crate::chem::molecule::Molecule;
+use crate::chem::molecule::{Composition, Molecule};
 use crate::chem::species::SubstrateDef;
 
 pub use load::{parse_set, SetError, FAMILIES};
@@ -40,8 +40,8 @@ pub struct Catalogue {
     substrates: Vec<Arc<SubstrateDef>>,
     /// Substrate key or alias (without spaces) -> substrate index.
     substrate_tokens: HashMap<String, usize>,
-    /// Hill formula and number of metal bonds -> ligands and substrates of that composition.
-    by_formula: HashMap<String, Vec<Entry>>,
+    /// Composition and number of metal bonds -> ligands and substrates with them.
+    by_formula: HashMap<(Composition, usize), Vec<Entry>>,
     /// Canonical SMILES of each ligand and substrate, worked out when first compared.
     canon_ligands: Vec<OnceLock<String>>,
     canon_substrates: Vec<OnceLock<String>>,
@@ -53,8 +53,8 @@ enum Entry {
     Substrate(usize),
 }
 
-fn formula_key(m: &Molecule) -> String {
-    format!("{}|{}", m.composition(), m.star_count())
+fn formula_key(m: &Molecule) -> (Composition, usize) {
+    (m.composition(), m.star_count())
 }
 
 impl Catalogue {
@@ -203,7 +203,7 @@ impl Catalogue {
                 }
             }
         }
-        let mut by_formula: HashMap<String, Vec<Entry>> = HashMap::new();
+        let mut by_formula: HashMap<(Composition, usize), Vec<Entry>> = HashMap::new();
         for (i, l) in ligands.iter().enumerate() {
             if let Some(m) = &l.structure {
                 by_formula

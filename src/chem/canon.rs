@@ -6,13 +6,49 @@
 //! between equivalent atoms are broken by trying each in turn and keeping the smallest SMILES,
 //! with a bound on the tries so a highly symmetric ligand stays cheap.
 
+use std::collections::HashMap;
+use std::sync::{Mutex, OnceLock};
+
 use super::molecule::{Molecule, AROMATIC};
 use super::periodic::{self, symbol};
 
 /// Leaves of the tie-breaking search tried at most.
-const MAX_LEAVES: usize = 96;
+const MAX_LEAVES: usize = 32;
+
+/// Canonical strings already worked out, by the exact atom and bond lists: steps build the
+/// same fragments again and again (the C6F5 of a borane, the acetate of a base), and the
+/// planner previews the same step on every key press.
+static MEMO: OnceLock<Mutex<HashMap<Vec<u8>, String>>> = OnceLock::new();
+
+/// Entries kept before the memo starts afresh (a few MB at most).
+const MEMO_MAX: usize = 20_000;
 
 pub fn canonical_smiles(m: &Molecule) -> String {
+    let mut key = Vec::with_capacity(4 * m.atoms.len() + 5 * m.bonds.len());
+    for a in &m.atoms {
+        key.extend_from_slice(&[a.z, a.h, a.charge as u8, a.aromatic as u8]);
+    }
+    key.push(0xff);
+    for b in &m.bonds {
+        key.extend_from_slice(&(b.a as u16).to_le_bytes());
+        key.extend_from_slice(&(b.b as u16).to_le_bytes());
+        key.push(b.order);
+    }
+    let memo = MEMO.get_or_init(|| Mutex::new(HashMap::new()));
+    if let Some(s) = memo.lock().ok().and_then(|g| g.get(&key).cloned()) {
+        return s;
+    }
+    let s = compute(m);
+    if let Ok(mut g) = memo.lock() {
+        if g.len() >= MEMO_MAX {
+            g.clear();
+        }
+        g.insert(key, s.clone());
+    }
+    s
+}
+
+fn compute(m: &Molecule) -> String {
     let n = m.atoms.len();
     if n == 0 {
         return String::new();
@@ -34,10 +70,49 @@ pub fn canonical_smiles(m: &Molecule) -> String {
         })
         .collect();
     let classes = refine(&adj, rank_values(&start));
-    let mut best: Option<String> = None;
+    // equivalent atoms give the same string whichever is taken first: take the first, then
+    // the last, of each tied class; only when the two differ (tied atoms that are not
+    // equivalent, which refinement rarely leaves) search the ties
+    let first = descend(m, &adj, classes.clone(), false);
+    let last = descend(m, &adj, classes.clone(), true);
+    if first == last {
+        return first;
+    }
+    let mut best: Option<String> = Some(first.min(last));
     let mut leaves = 0;
     search(m, &adj, classes, &mut best, &mut leaves);
     best.unwrap_or_default()
+}
+
+/// Break ties down to single atoms, always taking the first (or last) atom of the smallest
+/// tied class, and write the SMILES of that order.
+fn descend(m: &Molecule, adj: &[Vec<(usize, u8)>], mut classes: Vec<usize>, last: bool) -> String {
+    loop {
+        let mut sizes = vec![0usize; classes.len()];
+        for &c in &classes {
+            sizes[c] += 1;
+        }
+        let Some(target) = (0..sizes.len()).find(|&c| sizes[c] > 1) else {
+            let mut order: Vec<usize> = (0..classes.len()).collect();
+            order.sort_by_key(|&i| classes[i]);
+            return write_smiles(m, &order);
+        };
+        let mut members = (0..classes.len()).filter(|&i| classes[i] == target);
+        let pick = if last {
+            members.next_back()
+        } else {
+            members.next()
+        };
+        let Some(pick) = pick else {
+            return String::new();
+        };
+        let split: Vec<usize> = classes
+            .iter()
+            .enumerate()
+            .map(|(i, &c)| 2 * c + usize::from(c == target && i != pick))
+            .collect();
+        classes = refine(adj, rank_values(&split));
+    }
 }
 
 fn adjacency(m: &Molecule) -> Vec<Vec<(usize, u8)>> {
@@ -62,22 +137,31 @@ fn rank_values<T: Ord + Clone>(values: &[T]) -> Vec<usize> {
         .collect()
 }
 
-/// Split classes by the multiset of (bond order, neighbour class) until stable.
+/// Split classes by the multiset of (bond order, neighbour class) until stable. The
+/// multiset is hashed (FNV-1a over the sorted pairs), so a step costs a sort of small
+/// arrays rather than of vectors.
 fn refine(adj: &[Vec<(usize, u8)>], mut classes: Vec<usize>) -> Vec<usize> {
-    let count = |c: &[usize]| {
-        let mut v = c.to_vec();
-        v.sort_unstable();
-        v.dedup();
-        v.len()
-    };
+    let count = |c: &[usize]| c.iter().copied().max().map_or(0, |m| m + 1);
     let mut k = count(&classes);
+    let mut pairs: Vec<u64> = Vec::new();
     loop {
-        let sig: Vec<(usize, Vec<(usize, u8)>)> = (0..classes.len())
+        let sig: Vec<(usize, u64)> = (0..classes.len())
             .map(|i| {
-                let mut s: Vec<(usize, u8)> =
-                    adj[i].iter().map(|&(j, o)| (classes[j], o)).collect();
-                s.sort_unstable();
-                (classes[i], s)
+                pairs.clear();
+                pairs.extend(
+                    adj[i]
+                        .iter()
+                        .map(|&(j, o)| ((classes[j] as u64) << 8) | o as u64),
+                );
+                pairs.sort_unstable();
+                let mut h: u64 = 0xcbf2_9ce4_8422_2325;
+                for &p in &pairs {
+                    for byte in p.to_le_bytes() {
+                        h ^= byte as u64;
+                        h = h.wrapping_mul(0x0100_0000_01b3);
+                    }
+                }
+                (classes[i], h)
             })
             .collect();
         let next = rank_values(&sig);

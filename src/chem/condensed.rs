@@ -198,12 +198,15 @@ impl Reader<'_> {
         let max = rest.len().min(32);
         for len in (2..=max).rev() {
             let Some(t) = rest.get(..len) else { continue };
+            let Some(l) = self.lookup.exact(t).filter(|l| substituent(l).is_some()) else {
+                continue;
+            };
             // a token spelled as atoms with their hydrogens (CHO, CH3, OH) is read atom by
             // atom, which gives the same group and never swallows the next atom's H
             if atom_like(t) {
                 continue;
             }
-            if let Some(l) = self.lookup.exact(t).filter(|l| substituent(l).is_some()) {
+            {
                 // a group may not stop inside a count ("Me2" is Me twice, not M + e2)
                 let l = l.clone();
                 *pos += len;
@@ -574,14 +577,20 @@ pub fn print_group(m: &Molecule, lookup: &dyn LigandLookup) -> Option<String> {
                 .copied()
                 .filter(|&i| m.heavy_neighbors(i).len() <= 1)
                 .collect();
-            ends.iter()
+            let mut texts: Vec<String> = ends
+                .iter()
                 .filter_map(|&i| p.tree(i, None, None, radical))
-                .filter(|t| {
-                    // the text must read back as this molecule
-                    read_group(t, lookup, Attach::None)
-                        .is_ok_and(|r| r.canonical_smiles() == m.canonical_smiles() || radical)
-                })
-                .min_by(|a, b| a.len().cmp(&b.len()).then(a.cmp(b)))
+                .collect();
+            texts.sort_by(|a, b| a.len().cmp(&b.len()).then(a.cmp(b)));
+            texts.dedup();
+            // the shortest text that reads back as this molecule
+            let want = std::cell::OnceCell::new();
+            texts.into_iter().find(|t| {
+                radical
+                    || read_group(t, lookup, Attach::None).is_ok_and(|r| {
+                        r.canonical_smiles() == *want.get_or_init(|| m.canonical_smiles())
+                    })
+            })
         }
         _ => None,
     }

@@ -6,7 +6,6 @@
 //! `*` atom (atomic number 0), as OpenSMILES writes an unspecified atom, so `*C` is a methyl
 //! group and `*=O` an oxo.
 
-use std::collections::BTreeMap;
 use std::fmt;
 
 use super::periodic::{self, symbol};
@@ -67,6 +66,24 @@ impl Bond {
             1
         } else {
             self.order
+        }
+    }
+}
+
+/// Neighbours of every atom with the bond to each, as one flat table (built once for a
+/// walk over the graph).
+pub struct Adjacency {
+    start: Vec<usize>,
+    items: Vec<(usize, usize)>,
+}
+
+impl std::ops::Index<usize> for Adjacency {
+    type Output = [(usize, usize)];
+
+    fn index(&self, i: usize) -> &[(usize, usize)] {
+        match (self.start.get(i), self.start.get(i + 1)) {
+            (Some(&a), Some(&b)) => &self.items[a..b],
+            _ => &[],
         }
     }
 }
@@ -227,63 +244,98 @@ impl Molecule {
     /// The connected pieces (a salt gives two).
     pub fn components(&self) -> Vec<Molecule> {
         let n = self.atoms.len();
-        let mut seen = vec![usize::MAX; n];
-        let mut pieces = Vec::new();
+        let adj = self.adjacency();
+        let mut piece = vec![usize::MAX; n];
+        let mut count = 0;
         for start in 0..n {
-            if seen[start] != usize::MAX {
+            if piece[start] != usize::MAX {
                 continue;
             }
-            let id = pieces.len();
             let mut stack = vec![start];
-            seen[start] = id;
-            let mut members = vec![];
+            piece[start] = count;
             while let Some(i) = stack.pop() {
-                members.push(i);
-                for (j, _) in self.neighbors(i) {
-                    if seen[j] == usize::MAX {
-                        seen[j] = id;
+                for &(j, _) in &adj[i] {
+                    if piece[j] == usize::MAX {
+                        piece[j] = count;
                         stack.push(j);
                     }
                 }
             }
-            members.sort_unstable();
-            pieces.push(members);
+            count += 1;
         }
-        pieces
-            .into_iter()
-            .map(|members| {
-                let index = |i: usize| members.binary_search(&i).ok();
-                let mut m = Molecule::default();
-                for &i in &members {
-                    m.add_atom(self.atoms[i]);
-                }
-                for b in &self.bonds {
-                    if let (Some(a), Some(c)) = (index(b.a), index(b.b)) {
-                        m.add_bond(a, c, b.order);
-                    }
-                }
-                m
+        if count <= 1 {
+            return vec![self.clone()];
+        }
+        (0..count)
+            .map(|p| {
+                let keep: Vec<usize> = (0..n).filter(|&i| piece[i] == p).collect();
+                self.fragment(&keep, &[])
             })
             .collect()
     }
 
+    /// Whether the molecule is one piece (no salt, no separate ions).
+    pub fn is_connected(&self) -> bool {
+        let n = self.atoms.len();
+        if n == 0 {
+            return true;
+        }
+        let adj = self.adjacency();
+        let mut seen = vec![false; n];
+        let mut stack = vec![0];
+        seen[0] = true;
+        let mut reached = 1;
+        while let Some(i) = stack.pop() {
+            for &(j, _) in &adj[i] {
+                if !seen[j] {
+                    seen[j] = true;
+                    reached += 1;
+                    stack.push(j);
+                }
+            }
+        }
+        reached == n
+    }
+
+    /// Each atom's (neighbour, bond index) pairs, in one flat table.
+    pub fn adjacency(&self) -> Adjacency {
+        let n = self.atoms.len();
+        let mut start = vec![0usize; n + 1];
+        for b in &self.bonds {
+            if b.a < n && b.b < n {
+                start[b.a + 1] += 1;
+                start[b.b + 1] += 1;
+            }
+        }
+        for i in 0..n {
+            start[i + 1] += start[i];
+        }
+        let mut fill = start.clone();
+        let mut items = vec![(0usize, 0usize); start[n]];
+        for (k, b) in self.bonds.iter().enumerate() {
+            if b.a < n && b.b < n {
+                items[fill[b.a]] = (b.b, k);
+                fill[b.a] += 1;
+                items[fill[b.b]] = (b.a, k);
+                fill[b.b] += 1;
+            }
+        }
+        Adjacency { start, items }
+    }
+
     /// The atoms reachable from `from` without crossing bond `k`.
     pub fn side(&self, from: usize, k: usize) -> Vec<usize> {
+        let adj = self.adjacency();
         let mut seen = vec![false; self.atoms.len()];
         let mut stack = vec![from];
         seen[from] = true;
         let mut out = vec![from];
         while let Some(i) = stack.pop() {
-            for (bi, b) in self.bonds.iter().enumerate() {
-                if bi == k {
-                    continue;
-                }
-                if let Some(j) = b.other(i) {
-                    if !seen[j] {
-                        seen[j] = true;
-                        out.push(j);
-                        stack.push(j);
-                    }
+            for &(j, bi) in &adj[i] {
+                if bi != k && !seen[j] {
+                    seen[j] = true;
+                    out.push(j);
+                    stack.push(j);
                 }
             }
         }
@@ -568,25 +620,32 @@ fn upper_first(s: &str) -> String {
     }
 }
 
-/// Element counts of a species.
+/// Element counts of a species, sorted by atomic number (a few entries: a sorted vector
+/// beats a map here, and every count and step sums them).
 #[derive(Debug, Clone, Default, PartialEq, Eq, Hash)]
-pub struct Composition(BTreeMap<u8, u32>);
+pub struct Composition(Vec<(u8, u32)>);
 
 impl Composition {
     pub fn add(&mut self, z: u8, n: u32) {
-        if n > 0 {
-            *self.0.entry(z).or_insert(0) += n;
+        if n == 0 {
+            return;
+        }
+        match self.0.binary_search_by_key(&z, |e| e.0) {
+            Ok(i) => self.0[i].1 = self.0[i].1.saturating_add(n),
+            Err(i) => self.0.insert(i, (z, n)),
         }
     }
 
     pub fn add_all(&mut self, other: &Composition, times: u32) {
-        for (&z, &n) in &other.0 {
+        for &(z, n) in &other.0 {
             self.add(z, n.saturating_mul(times));
         }
     }
 
     pub fn count(&self, z: u8) -> u32 {
-        self.0.get(&z).copied().unwrap_or(0)
+        self.0
+            .binary_search_by_key(&z, |e| e.0)
+            .map_or(0, |i| self.0[i].1)
     }
 
     pub fn is_empty(&self) -> bool {
@@ -595,19 +654,19 @@ impl Composition {
 
     /// Counts by symbol, for reports.
     pub fn elements(&self) -> impl Iterator<Item = (&'static str, u32)> + '_ {
-        self.0.iter().map(|(&z, &n)| (symbol(z), n))
+        self.0.iter().map(|&(z, n)| (symbol(z), n))
     }
 
     /// What `self` has beyond `other`, and what `other` has beyond `self`.
     pub fn difference(&self, other: &Composition) -> (Composition, Composition) {
         let mut more = Composition::default();
         let mut less = Composition::default();
-        for z in self.0.keys().chain(other.0.keys()) {
-            let (a, b) = (self.count(*z), other.count(*z));
-            if a > b && more.count(*z) == 0 {
-                more.add(*z, a - b);
-            } else if b > a && less.count(*z) == 0 {
-                less.add(*z, b - a);
+        for &(z, _) in self.0.iter().chain(&other.0) {
+            let (a, b) = (self.count(z), other.count(z));
+            if a > b && more.count(z) == 0 {
+                more.add(z, a - b);
+            } else if b > a && less.count(z) == 0 {
+                less.add(z, b - a);
             }
         }
         (more, less)

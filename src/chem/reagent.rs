@@ -12,14 +12,24 @@ use super::molecule::{Atom, Molecule};
 use super::periodic::{self, symbol};
 use super::species::{ion_of, Species};
 
-/// A reagent read from text: the species, and the two groups it splits into when it is
-/// written as two groups or has one bond a metal readily breaks (H-H, C-I, Si-H, ...).
+/// A reagent read from text: the species, and the two groups it was written as (`A-B`,
+/// `PhBr`), if it was.
 #[derive(Debug, Clone)]
 pub struct Reagent {
     pub species: Species,
-    pub split: Option<(Molecule, Molecule)>,
-    /// The split was written by the chemist (`A-B`): keep its order.
+    written: Option<(Molecule, Molecule)>,
+    /// The split was written by the chemist as `A-B`: keep its order.
     pub split_written: bool,
+}
+
+impl Reagent {
+    /// The two groups it splits into: as written, else at the one bond a metal readily
+    /// breaks (H-H, C-I, Si-H, ...; see `split_bond`).
+    pub fn split(&self) -> Option<(Molecule, Molecule)> {
+        self.written
+            .clone()
+            .or_else(|| split_bond(&self.species.structure))
+    }
 }
 
 /// Longest reagent text read.
@@ -35,11 +45,9 @@ pub fn read(text: &str, lookup: &dyn LigandLookup) -> Result<Reagent, String> {
         return Err(format!("a reagent of at most {MAX_TEXT} characters"));
     }
     if let Some(def) = lookup.substrate(text) {
-        let species = Species::of(def);
-        let split = split_bond(&species.structure);
         return Ok(Reagent {
-            species,
-            split,
+            species: Species::of(def),
+            written: None,
             split_written: false,
         });
     }
@@ -50,7 +58,7 @@ pub fn read(text: &str, lookup: &dyn LigandLookup) -> Result<Reagent, String> {
                 let m = join(&ga, &gb);
                 return Ok(Reagent {
                     species: named(m, &format!("{a}-{b}"), lookup),
-                    split: Some((ga, gb)),
+                    written: Some((ga, gb)),
                     split_written: true,
                 });
             }
@@ -61,7 +69,7 @@ pub fn read(text: &str, lookup: &dyn LigandLookup) -> Result<Reagent, String> {
         Ok((m, split)) => {
             return Ok(Reagent {
                 species: named(m, text, lookup),
-                split,
+                written: split,
                 split_written: false,
             })
         }
@@ -69,10 +77,9 @@ pub fn read(text: &str, lookup: &dyn LigandLookup) -> Result<Reagent, String> {
     }
     match Molecule::from_smiles(text) {
         Ok(m) if m.star_count() == 0 => {
-            let split = split_bond(&m);
             return Ok(Reagent {
                 species: named(m, text, lookup),
-                split,
+                written: None,
                 split_written: false,
             });
         }
@@ -539,7 +546,7 @@ pub fn name_species(m: &Molecule, first: Option<&str>, lookup: &dyn LigandLookup
         }
     }
     // an anion named as the group it is on a metal: OTf-, OAc-, Cl-
-    if m.charge() == -1 && m.components().len() == 1 {
+    if m.charge() == -1 && m.is_connected() {
         if let Some(at) = (0..m.atoms.len()).find(|&i| m.atoms[i].charge < 0) {
             let mut g = m.clone();
             g.atoms[at].charge = 0;
@@ -563,7 +570,7 @@ fn strip_charges(m: &Molecule) -> Molecule {
 
 /// "B(OH)2Br": the atom whose bonds all lead to catalogue groups or single atoms.
 fn central_name(m: &Molecule, first: Option<&str>, lookup: &dyn LigandLookup) -> Option<String> {
-    if m.components().len() != 1 || m.atoms.is_empty() {
+    if m.atoms.is_empty() {
         return None;
     }
     if m.atoms.len() == 1 {
@@ -577,28 +584,53 @@ fn central_name(m: &Molecule, first: Option<&str>, lookup: &dyn LigandLookup) ->
         }
         return Some(s);
     }
+    let adj = m.adjacency();
+    let degree = |i: usize| adj[i].len();
+    // centres worth trying: non-carbon atoms, and carbons with three or more neighbours
+    // outside a ring system; most bonds first
+    let mut centres: Vec<usize> = (0..m.atoms.len())
+        .filter(|&c| {
+            let a = m.atoms[c];
+            !a.is_star()
+                && degree(c) >= 1
+                && (a.z != periodic::C || (degree(c) >= 3 && !a.aromatic))
+        })
+        .collect();
+    centres.sort_by_key(|&c| std::cmp::Reverse(degree(c)));
     let mut best: Option<(usize, Vec<String>)> = None;
-    for c in 0..m.atoms.len() {
-        if m.atoms[c].is_star() {
-            continue;
-        }
+    let mut seen = vec![usize::MAX; m.atoms.len()];
+    'centre: for c in centres {
         let mut names = Vec::new();
-        let mut ok = true;
-        for (k, b) in m.bonds.iter().enumerate() {
-            let Some(other) = b.other(c) else { continue };
-            if b.order != 1 {
-                ok = false;
-                break;
+        let mut reached = 1;
+        for (t, &(start, k)) in adj[c].iter().enumerate() {
+            if m.bonds[k].order != 1 {
+                continue 'centre;
             }
-            let Some((x, y)) = m.cut(k) else {
-                ok = false;
-                break;
-            };
-            let mut g = if b.a == c { y } else { x };
+            // the atoms beyond this bond, not passing through the centre
+            let mut keep = vec![start];
+            seen[start] = c * 64 + t;
+            let mut stack = vec![start];
+            while let Some(i) = stack.pop() {
+                for &(j, _) in &adj[i] {
+                    if j == c {
+                        if i != start {
+                            continue 'centre; // a ring through the centre
+                        }
+                        continue;
+                    }
+                    if seen[j] != c * 64 + t {
+                        seen[j] = c * 64 + t;
+                        keep.push(j);
+                        stack.push(j);
+                    }
+                }
+            }
+            reached += keep.len();
+            keep.sort_unstable();
+            let mut g = m.fragment(&keep, &[(start, 1)]);
             for a in &mut g.atoms {
                 a.charge = 0;
             }
-            let _ = other;
             let name = if g.atoms.len() == 2 && g.atoms[0].h == 0 {
                 // a single atom: F, Cl, H
                 Some(symbol(g.atoms[0].z).to_string())
@@ -610,14 +642,13 @@ fn central_name(m: &Molecule, first: Option<&str>, lookup: &dyn LigandLookup) ->
             };
             match name {
                 Some(n) => names.push(n),
-                None => {
-                    ok = false;
-                    break;
-                }
+                None => continue 'centre,
             }
         }
-        if ok && !names.is_empty() && best.as_ref().is_none_or(|(_, b)| names.len() > b.len()) {
+        // one piece: every atom is the centre or beyond one of its bonds
+        if reached == m.atoms.len() && !names.is_empty() {
             best = Some((c, names));
+            break;
         }
     }
     let (c, mut names) = best?;

@@ -433,7 +433,7 @@ pub fn cmd(cx: &mut Ctx, substrate: &str, base: &str) -> Result<Complex, StepErr
     let r = cx.reagent(substrate)?;
     let sm = r.species.structure.clone();
     // which C-H: the written one (H-R), else the first aromatic C-H, else any C-H
-    let group = match (&r.split, r.split_written) {
+    let group = match (&r.split(), r.split_written) {
         (Some((ga, gb)), true) => {
             let is_h = |g: &Molecule| {
                 g.atoms.iter().filter(|a| !a.is_star()).count() == 1

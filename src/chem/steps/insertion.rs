@@ -408,10 +408,9 @@ pub fn beta_elimination(
              must leave first (Whitesides; Crabtree 2014, ch. 7)",
         );
     }
-    let names: Vec<String> = distinct
-        .iter()
-        .map(|o| cx.made(&o.alkene).key.clone())
-        .collect();
+    // the alkene ligands, made once: for the names of a choice and for the product
+    let made: Vec<_> = distinct.iter().map(|o| cx.made(&o.alkene)).collect();
+    let names: Vec<String> = made.iter().map(|l| l.key.clone()).collect();
     let pick = match which {
         Some(w) => {
             let want = cx
@@ -473,6 +472,7 @@ pub fn beta_elimination(
         }
     };
     let chosen = distinct.swap_remove(pick);
+    let chosen_made = made[pick].clone();
     let moving = cx.made(&chosen.moving);
     let carbonyl = !matches!(m.atoms[alpha].z, periodic::C);
     let once = swap(cx.c, slot, &moving, x_mode(&moving))?;
@@ -482,7 +482,7 @@ pub fn beta_elimination(
         cx.leaves(Species::new(name, chosen.alkene));
         return Ok(once);
     }
-    let ene = cx.made(&chosen.alkene);
+    let ene = chosen_made;
     add(&once, &ene, 0)
 }
 

@@ -15,7 +15,7 @@ use crate::chem::species::Species;
 /// A-B adds across the metal as two X groups (Crabtree 2014, ch. 6).
 pub fn oxidative_addition(cx: &mut Ctx, substrate: &str) -> Result<Complex, StepError> {
     let r = cx.reagent(substrate)?;
-    let Some((ga, gb)) = r.split.clone() else {
+    let Some((ga, gb)) = r.split() else {
         return refuse(format!(
             "nonet finds no bond in {} that a metal adds across; write the two groups as A-B \
              (Me-I, H-SiEt3)",
@@ -221,7 +221,7 @@ pub fn sigma_bond_metathesis(
         ));
     }
     let r = cx.reagent(reagent)?;
-    let Some((ga, gb)) = r.split.clone() else {
+    let Some((ga, gb)) = r.split() else {
         return refuse(format!(
             "nonet finds no σ bond in {} to exchange; write it as A-B with A the group that \
              goes to the metal",

@@ -240,40 +240,6 @@ pub fn write_ligand(out: &mut impl Write, l: &LigandDef) -> io::Result<()> {
     out.write_all(b"\n")
 }
 
-#[cfg(test)]
-mod tests {
-    use super::*;
-    use crate::catalogue::Catalogue;
-    use crate::chem::{count, parse};
-
-    /// The hand-written writer must give exactly what serde would: same keys, same values.
-    #[test]
-    fn hand_written_json_equals_serde_rendering() {
-        let cat = Catalogue::bundled();
-        for f in [
-            "CpFe(CO)2Me",
-            "Rh6(CO)16",
-            "[Cr2(μ-H)(CO)10]-",
-            "Pd(PtBu3)2",
-            "[Co(NH3)6]3+",
-            "Fe2(CO)9",
-            "UCp3Cl",
-            "[Fe(H2O)6]2+",
-        ] {
-            let c = parse(f, &cat).unwrap_or_else(|e| panic!("{}", e.render()));
-            let r = count(&c);
-            let mut line = Vec::new();
-            append_report(&mut line, f, &r);
-            let ours: serde_json::Value = serde_json::from_slice(&line).unwrap();
-            let mut theirs = serde_json::to_value(&r).unwrap();
-            let obj = theirs.as_object_mut().unwrap();
-            obj.insert("schema".into(), SCHEMA.into());
-            obj.insert("input".into(), f.into());
-            assert_eq!(ours, theirs, "{f}");
-        }
-    }
-}
-
 /// One substrate: `{"key","name","formula","hill","smiles","charge","aliases","hazards",
 /// "hazard_source","notes","origin"}`.
 pub fn write_substrate(
@@ -311,4 +277,38 @@ pub fn write_substrate(
         },
     )?;
     out.write_all(b"\n")
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::catalogue::Catalogue;
+    use crate::chem::{count, parse};
+
+    /// The hand-written writer must give exactly what serde would: same keys, same values.
+    #[test]
+    fn hand_written_json_equals_serde_rendering() {
+        let cat = Catalogue::bundled();
+        for f in [
+            "CpFe(CO)2Me",
+            "Rh6(CO)16",
+            "[Cr2(μ-H)(CO)10]-",
+            "Pd(PtBu3)2",
+            "[Co(NH3)6]3+",
+            "Fe2(CO)9",
+            "UCp3Cl",
+            "[Fe(H2O)6]2+",
+        ] {
+            let c = parse(f, &cat).unwrap_or_else(|e| panic!("{}", e.render()));
+            let r = count(&c);
+            let mut line = Vec::new();
+            append_report(&mut line, f, &r);
+            let ours: serde_json::Value = serde_json::from_slice(&line).unwrap();
+            let mut theirs = serde_json::to_value(&r).unwrap();
+            let obj = theirs.as_object_mut().unwrap();
+            obj.insert("schema".into(), SCHEMA.into());
+            obj.insert("input".into(), f.into());
+            assert_eq!(ours, theirs, "{f}");
+        }
+    }
 }

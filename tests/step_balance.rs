@@ -31,7 +31,9 @@ const STARTS: &[&str] = &[
     "Cp2Zr(η2-C2H4)2",
 ];
 
-const ENTERING: &[&str] = &["CO", "C2H4", "PPh3", "Cl", "H2O", "CH2CHPh", "C2H2", "MeCN"];
+const ENTERING: &[&str] = &[
+    "CO", "C2H4", "PPh3", "Cl", "H2O", "CH2CHPh", "C2H2", "MeCN", "HNMe2",
+];
 const SUBSTRATES: &[&str] = &["H2", "MeI", "PhBr", "HSiEt3", "HBpin", "Me-Cl", "PhOTf"];
 const TRANSFER: &[&str] = &["PhB(OH)2", "MeZnCl", "Bu3SnPh", "PhMgBr"];
 const TAKERS: &[&str] = &["AgBF4", "B(C6F5)3", "[Ph3C]+", "NaBArF4"];
@@ -46,6 +48,7 @@ fn candidates(c: &Complex) -> Vec<String> {
         "oxidation".to_string(),
         "reduction".into(),
         "protonation".into(),
+        "protonation HBF4".into(),
     ];
     for k in &keys {
         for w in [
@@ -80,6 +83,9 @@ fn candidates(c: &Complex) -> Vec<String> {
             out.push(format!("sigma-bond-metathesis {s} {k}"));
         }
         out.push(format!("concerted-metalation-deprotonation PhH {k}"));
+        for base in ["NaOtBu", "Et3N", "Cs2CO3"] {
+            out.push(format!("deprotonation {k} {base}"));
+        }
         out.push(format!("cycloreversion {k}"));
         for k2 in &keys {
             out.push(format!("reductive-elimination {k} {k2}"));

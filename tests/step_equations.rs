@@ -451,12 +451,48 @@ fn metallacycles_and_metathesis() {
 }
 
 #[test]
+fn protons_to_and_from_ligands_with_acids_and_bases() {
+    // Buchwald-Hartwig: the bound amine loses its N-H proton to the base, giving the amido
+    // that reductive elimination couples to the aryl (Hartwig 2010, ch. 19)
+    let o = run("Pd(PPh3)Br(Ph)(HNMe2)", &["deprotonation HNMe2 NaOtBu"]);
+    assert_eq!(o.product.charge, -1);
+    assert_eq!(os(&o), (2, 2));
+    assert!(o.after.formula.contains("NMe2"), "{}", o.after.formula);
+    let (ins, outs) = sides(&o);
+    assert_eq!(ins, vec!["C4H9NaO".to_string()]);
+    assert!(outs.contains(&"C4H10O".to_string()) && outs.contains(&"Na+".to_string()));
+    let o = run(
+        "Pd(PPh3)Br(Ph)(HNMe2)",
+        &["deprotonation HNMe2 Et3N", "reductive-elimination Ph NMe2"],
+    );
+    assert_eq!(sides(&o), (vec![], vec!["C8H11N".into()]));
+    // coordinated water gives up a proton and becomes hydroxide (Wacker; Crabtree 2014, ch. 9)
+    let o = run("[PdCl3(H2O)]-", &["deprotonation H2O"]);
+    assert_eq!(sides(&o), (vec![], vec!["H+".into()]));
+    assert!(o.after.formula.contains("OH"));
+    // an acid gives the proton to the metal and its anion stays outside: Fe(CO)5 + HBF4
+    // (etherate) -> [HFe(CO)5]+ + Et2O + BF4- (Crabtree 2014, ch. 6)
+    let o = run("Fe(CO)5", &["protonation HBF4"]);
+    assert_eq!(o.product.charge, 1);
+    assert_eq!(sides(&o).1, vec!["C4H10O".to_string(), "BF4-".to_string()]);
+    assert!(refused("Fe(CO)5", "protonation Et3N").contains("no proton"));
+    assert!(refused("Fe(CO)5", "deprotonation CO").contains("neither a hydride"));
+}
+
+#[test]
 fn electrons_leave_and_enter_as_e() {
     let o = run("Cp2Fe", &["oxidation"]);
     assert_eq!(o.equation.leaves[0].species.label(), "e-");
     assert_eq!(sides(&o).1, vec!["-".to_string()]);
     let o = run("Fe(CO)5", &["protonation"]);
     assert_eq!(sides(&o), (vec!["H+".into()], vec![]));
+    // caesium is read as caesium (purr 0.9 displays Element::Cs as "Ac")
+    let o = run("Pd(PPh3)Br(Ph)(HNMe2)", &["deprotonation HNMe2 Cs2CO3"]);
+    assert!(
+        sides(&o).1.contains(&"2 Cs+".to_string()),
+        "{:?}",
+        sides(&o)
+    );
 }
 
 #[test]

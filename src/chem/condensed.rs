@@ -253,6 +253,8 @@ struct Builder {
     /// Groups written before the first chain atom (`Me3Si` in `Me3SiCH2`).
     waiting: Vec<(Arc<LigandDef>, u32)>,
     group_first: bool,
+    /// Hydrogens written before the first atom.
+    leading_h: u8,
 }
 
 impl Builder {
@@ -283,6 +285,8 @@ impl Builder {
             match u {
                 Unit::Hydrogen(n) => match self.current() {
                     Some(c) => self.m.atoms[c].h = self.m.atoms[c].h.saturating_add(*n),
+                    // "HNMe2", "H2NCH2": the hydrogens of the atom that comes next
+                    None if top => self.leading_h = self.leading_h.saturating_add(*n),
                     None => return Err("a hydrogen before any atom".into()),
                 },
                 Unit::Group { ligand, times } => match self.current() {
@@ -310,7 +314,12 @@ impl Builder {
                             // CO2Me: all but the last of a repeated atom are branches
                             let prev = self.current();
                             for k in 0..*times {
-                                let a = self.atom(*z, *h);
+                                let lead = if prev.is_none() && k == 0 {
+                                    std::mem::take(&mut self.leading_h)
+                                } else {
+                                    0
+                                };
+                                let a = self.atom(*z, h.saturating_add(lead));
                                 if let Some(p) = prev {
                                     self.m.add_bond(p, a, 1);
                                 } else if k > 0 {
@@ -409,8 +418,22 @@ pub fn read_group(
         chain: Vec::new(),
         waiting: Vec::new(),
         group_first: false,
+        leading_h: 0,
     };
     b.add_units(&units, true)?;
+    // "HNMe2", "HOAc": a hydrogen and one catalogue group make a molecule
+    if b.chain.is_empty() && b.leading_h > 0 && attach == Attach::None {
+        if let [(l, 1)] = &b.waiting[..] {
+            if let Some(g) = substituent(l) {
+                let mut m = g.clone();
+                let bound = m.strip_stars();
+                if let Some(&(at, 1)) = bound.first() {
+                    m.atoms[at].h = m.atoms[at].h.saturating_add(b.leading_h);
+                    return Ok(m);
+                }
+            }
+        }
+    }
     if !b.waiting.is_empty() || b.chain.is_empty() {
         return Err(format!(
             "'{text}' has no atom of its own to bond to the metal"

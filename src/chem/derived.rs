@@ -58,6 +58,18 @@ fn make(m: &Molecule, lookup: &dyn LigandLookup) -> LigandDef {
             mode.note = Some("metallacycle: σ bonds at both ends".into());
             ("alkyl", vec![mode])
         }
+        [] if !has_pi(m) && donor_atom(m).is_some() => {
+            let family = match donor_atom(m).map(|i| m.atoms[i].z) {
+                Some(15) => "phosphine",
+                Some(periodic::N) => "amine",
+                Some(periodic::S) => "thioether",
+                _ => "ether",
+            };
+            (
+                family,
+                vec![BindingMode::new("κ1", CbcClass { l: 1, x: 0, z: 0 })],
+            )
+        }
         [] => pi_modes(m),
         _ => {
             let n = bonds.len() as u8;
@@ -136,6 +148,42 @@ fn sigma_family(m: &Molecule, at: usize, order: u8) -> &'static str {
     }
 }
 
+/// A closed-shell molecule with a C=C or C≡C, or with a lone pair to give (an amine,
+/// phosphine, ether, water): something that binds as a neutral ligand.
+pub fn free_ligand(m: &Molecule) -> bool {
+    let every_valence_usual = (0..m.atoms.len()).all(|i| {
+        let a = m.atoms[i];
+        let used = m.bond_valence(i) + a.h + u8::from(a.aromatic);
+        periodic::valences_charged(a.z, a.charge).contains(&used)
+    });
+    m.star_count() == 0
+        && m.charge() == 0
+        && every_valence_usual
+        && (has_pi(m) || donor_atom(m).is_some())
+}
+
+/// A C=C or C≡C outside an aromatic ring (arenes bind η6 only when the formula says so).
+fn has_pi(m: &Molecule) -> bool {
+    m.bonds.iter().any(|b| {
+        (b.order == 2 || b.order == 3)
+            && m.atoms[b.a].z == periodic::C
+            && m.atoms[b.b].z == periodic::C
+    })
+}
+
+/// The atom a neutral donor binds through: P, then N, S, O (soft before hard, as
+/// phosphines and amines bind), only atoms with a lone pair and no multiple bond.
+fn donor_atom(m: &Molecule) -> Option<usize> {
+    [15u8, periodic::N, periodic::S, periodic::O]
+        .iter()
+        .find_map(|&z| {
+            (0..m.atoms.len()).find(|&i| {
+                let a = m.atoms[i];
+                a.z == z && a.charge == 0 && !a.aromatic && m.neighbors(i).all(|(_, o)| o == 1)
+            })
+        })
+}
+
 /// Modes of an η-bound ligand from the size of its π system: an alkene η2 (L), an allyl η3
 /// (LX), a diene η4 (L2), a dienyl η5 (L2X), an arene η6 (L3) (Green 1995).
 fn pi_modes(m: &Molecule) -> (&'static str, Vec<BindingMode>) {
@@ -177,40 +225,39 @@ pub fn read_written(
         Some(l) if l.starts_with('κ') && l.len() > "κ".len() && !l.ends_with('1') => Attach::Two,
         _ => Attach::One,
     };
-    let m = match text.strip_prefix('{').and_then(|t| t.strip_suffix('}')) {
-        Some(smiles) => Molecule::from_smiles(smiles).map_err(|e| e.to_string())?,
-        None => match read_group(text, lookup, attach) {
-            Ok(m) => m,
-            // a free molecule without a prefix (CH2CHCH2CH2CH3): an η-bound π ligand when it
-            // has a multiple bond and no atom short of bonds
-            Err(why) if label.is_none() => {
-                let m = read_group(text, lookup, Attach::None).map_err(|_| why)?;
-                let closed = super::species::open_valence_atoms(&m).is_empty();
-                let pi = m.bonds.iter().any(|b| b.order == 2 || b.order == 3);
-                if !(closed && pi) {
-                    return Err(format!(
-                        "'{text}' is neither a one-bond group nor an alkene"
-                    ));
-                }
-                return Ok(ligand_for(&m, lookup));
-            }
-            Err(why) => return Err(why),
-        },
-    };
-    if m.atoms.iter().all(|a| a.is_star()) {
-        return Err("a group with no atoms".into());
+    if let Some(smiles) = text.strip_prefix('{').and_then(|t| t.strip_suffix('}')) {
+        let m = Molecule::from_smiles(smiles).map_err(|e| e.to_string())?;
+        if m.atoms.iter().all(|a| a.is_star()) {
+            return Err("a group with no atoms".into());
+        }
+        return Ok(ligand_for(&m, lookup));
     }
-    if label.is_none() && !text.starts_with('{') {
-        // without a mode prefix, only a plain one-bond group is read this way, so that a
-        // slip such as (PPh) is not taken for a phosphinidene
-        let plain = matches!(m.metal_bonds()[..], [(at, 1)]
-            if matches!(m.atoms[at].z, 5 | 6 | 7 | 8 | 14 | 16 | 32 | 50));
-        if !plain {
-            return Err(format!(
-                "'{text}' would be a group bound by a multiple bond; write its mode (κ1-{text}) \
-                 if that is meant"
-            ));
+    let read = read_group(text, lookup, attach);
+    if label.is_some() {
+        return read.map(|m| ligand_for(&m, lookup));
+    }
+    // without a mode prefix: a plain one-bond group (so that a slip such as (PPh) is not
+    // taken for a phosphinidene), else a free molecule that binds as it is (an alkene, an
+    // amine)
+    let plain = |m: &Molecule| {
+        matches!(m.metal_bonds()[..], [(at, 1)]
+            if matches!(m.atoms[at].z, 5 | 6 | 7 | 8 | 14 | 16 | 32 | 50))
+    };
+    match read {
+        Ok(m) if plain(&m) => Ok(ligand_for(&m, lookup)),
+        first => {
+            if let Ok(m) = read_group(text, lookup, Attach::None) {
+                if free_ligand(&m) {
+                    return Ok(ligand_for(&m, lookup));
+                }
+            }
+            Err(match first {
+                Ok(_) => format!(
+                    "'{text}' would be a group bound by a multiple bond; write its mode \
+                     (κ1-{text}) if that is meant"
+                ),
+                Err(why) => why,
+            })
         }
     }
-    Ok(ligand_for(&m, lookup))
 }

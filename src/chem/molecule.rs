@@ -563,7 +563,8 @@ fn from_purr(graph: &[purr::graph::Atom]) -> Molecule {
                 let q: i8 = charge.as_ref().map_or(0, |c| c.into());
                 match symbol {
                     BracketSymbol::Star => ("*".to_string(), false, q),
-                    BracketSymbol::Element(e) => (e.to_string(), false, q),
+                    // the variant's name, not its Display: purr 0.9 displays Cs as "Ac"
+                    BracketSymbol::Element(e) => (format!("{e:?}"), false, q),
                     BracketSymbol::Aromatic(e) => (upper_first(&e.to_string()), true, q),
                 }
             }
@@ -726,6 +727,7 @@ mod tests {
         assert_eq!(hill("Cl[Pt](Cl)"), "Cl2Pt");
         assert_eq!(hill("[Ag+].F[B-](F)(F)F"), "AgBF4");
         assert_eq!(hill("[2H]C"), "CH4");
+        assert_eq!(hill("[Cs+].[Cs+].[O-]C([O-])=O"), "CCs2O3");
     }
 
     #[test]

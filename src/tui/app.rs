@@ -321,8 +321,10 @@ impl App {
             Action::StepInsertion => self.pend_pair_step(PairStep::Insertion),
             Action::StepBetaElimination => self.pend_on_selected(Step::beta_hydride),
             Action::StepAlphaElimination => self.pend_on_selected(Step::AlphaElimination),
-            Action::StepProtonation => self.set_pending(Pending::Step(Step::Protonation)),
-            Action::StepDeprotonation => self.pend_on_selected(Step::Deprotonation),
+            Action::StepProtonation => {
+                self.set_pending(Pending::Step(Step::Protonation { acid: None }))
+            }
+            Action::StepDeprotonation => self.pend_on_selected(Step::deprotonation),
             Action::OpenTree => self.open_tree(),
             Action::JumpToVariant => self.jump_to_variant(),
             Action::StartBookmark => {

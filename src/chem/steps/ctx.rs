@@ -102,6 +102,12 @@ impl<'a> Ctx<'a> {
         if let Some(l) = self.lookup.exact(body) {
             return Ok(l.clone());
         }
+        // a substrate that binds as it is: an amine, an alkene the catalogue has as a reagent
+        if let Some(def) = self.lookup.substrate(body) {
+            if crate::chem::derived::free_ligand(&def.structure) {
+                return Ok(ligand_for(&def.structure, self.lookup));
+            }
+        }
         read_written(body, label, self.lookup).map_err(|why| {
             let hint = self
                 .lookup

@@ -127,8 +127,13 @@ pub enum Step {
     },
     Oxidation,
     Reduction,
-    Protonation,
-    Deprotonation(String),
+    Protonation {
+        acid: Option<String>,
+    },
+    Deprotonation {
+        group: String,
+        base: Option<String>,
+    },
 }
 
 /// Each step's word, its arguments and one example, as the CLI, the log and the README write
@@ -212,8 +217,12 @@ pub const STEP_WORDS: &[(&str, &str, &str)] = &[
     ("ring-slip", "LIGAND HAPTICITY", "ring-slip Cp 3"),
     ("oxidation", "", "oxidation"),
     ("reduction", "", "reduction"),
-    ("protonation", "", "protonation"),
-    ("deprotonation", "H", "deprotonation H"),
+    ("protonation", "[ACID]", "protonation HBF4"),
+    (
+        "deprotonation",
+        "GROUP [BASE]",
+        "deprotonation HNMe2 NaOtBu",
+    ),
 ];
 
 /// Other spellings chemists use for a step word.
@@ -453,12 +462,15 @@ impl Step {
                 Step::Reduction
             }
             "protonation" => {
-                want(0, 0)?;
-                Step::Protonation
+                want(0, 1)?;
+                Step::Protonation { acid: opt(0) }
             }
             "deprotonation" => {
-                want(1, 1)?;
-                Step::Deprotonation(a(0))
+                want(1, 2)?;
+                Step::Deprotonation {
+                    group: a(0),
+                    base: opt(1),
+                }
             }
             other => {
                 return Err(StepError::Usage(format!(
@@ -498,9 +510,14 @@ impl Step {
             Step::RingSlip { .. } => "ring-slip",
             Step::Oxidation => "oxidation",
             Step::Reduction => "reduction",
-            Step::Protonation => "protonation",
-            Step::Deprotonation(_) => "deprotonation",
+            Step::Protonation { .. } => "protonation",
+            Step::Deprotonation { .. } => "deprotonation",
         }
+    }
+
+    /// Deprotonation of a group (a hydride, or an N-H, O-H donor), the proton left free.
+    pub fn deprotonation(group: String) -> Step {
+        Step::Deprotonation { group, base: None }
     }
 
     /// β-hydride elimination of a group, the chemist's default alkene.
@@ -529,8 +546,9 @@ impl fmt::Display for Step {
             | Step::Deinsertion(l)
             | Step::AlphaElimination(l)
             | Step::Cycloreversion(l)
-            | Step::ReductiveDecoupling(l)
-            | Step::Deprotonation(l) => write!(f, " {l}"),
+            | Step::ReductiveDecoupling(l) => write!(f, " {l}"),
+            Step::Deprotonation { group, base } => write!(f, " {group}{}", opt(base)),
+            Step::Protonation { acid } => f.write_str(&opt(acid)),
             Step::Substitution { leaving, entering } => write!(f, " {leaving} {entering}"),
             Step::Abstraction { group, by } => write!(f, " {group} {by}"),
             Step::Transmetalation { reagent, leaving } => write!(f, " {reagent}{}", opt(leaving)),
@@ -571,7 +589,7 @@ impl fmt::Display for Step {
                 write!(f, " {substrate} {base}")
             }
             Step::RingSlip { ligand, hapticity } => write!(f, " {ligand} {hapticity}"),
-            Step::Oxidation | Step::Reduction | Step::Protonation => Ok(()),
+            Step::Oxidation | Step::Reduction => Ok(()),
         }
     }
 }
@@ -654,8 +672,10 @@ pub fn take(
         Step::ReductiveElimination(a, b) => redox::reductive_elimination(&mut cx, a, b)?,
         Step::Oxidation => redox::electron_transfer(&mut cx, 1)?,
         Step::Reduction => redox::electron_transfer(&mut cx, -1)?,
-        Step::Protonation => redox::protonation(&mut cx)?,
-        Step::Deprotonation(h) => redox::deprotonation(&mut cx, h)?,
+        Step::Protonation { acid } => redox::protonation(&mut cx, acid.as_deref())?,
+        Step::Deprotonation { group, base } => {
+            redox::deprotonation(&mut cx, group, base.as_deref())?
+        }
         Step::Protonolysis { group, acid } => redox::protonolysis(&mut cx, group, acid)?,
         Step::SigmaBondMetathesis { reagent, group } => {
             redox::sigma_bond_metathesis(&mut cx, reagent, group)?

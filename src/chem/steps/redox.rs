@@ -93,8 +93,9 @@ pub fn electron_transfer(cx: &mut Ctx, delta: i32) -> Result<Complex, StepError>
     recharge(cx.c, delta)
 }
 
-/// A proton binds at the metal as a hydride: the metal is oxidized by two.
-pub fn protonation(cx: &mut Ctx) -> Result<Complex, StepError> {
+/// A proton binds at the metal as a hydride: the metal is oxidized by two. With an acid
+/// named, the acid gives the proton and its anion leaves.
+pub fn protonation(cx: &mut Ctx, acid: Option<&str>) -> Result<Complex, StepError> {
     let d = cx.d()?;
     if d < Frac::int(2) {
         return refuse(format!(
@@ -102,25 +103,107 @@ pub fn protonation(cx: &mut Ctx) -> Result<Complex, StepError> {
         ));
     }
     let h = cx.made(&hydride());
-    cx.enters(proton());
+    match acid {
+        None => cx.enters(proton()),
+        Some(a) => {
+            let r = cx.reagent(a)?;
+            let e = electrophile(&r.species.structure)
+                .filter(|e| e.is_proton())
+                .ok_or_else(|| StepError::Refused(format!("{} gives no proton", r.species.name)))?;
+            cx.enters(r.species.clone());
+            for y in e.rest {
+                for piece in y.components() {
+                    let name = name_species(&piece, None, cx.lookup);
+                    cx.leaves(Species::new(name, piece));
+                }
+            }
+        }
+    }
     recharge(&add(cx.c, &h, 0)?, 1)
 }
 
-/// A hydride leaves as a proton.
-pub fn deprotonation(cx: &mut Ctx, token: &str) -> Result<Complex, StepError> {
+/// A proton leaves: a hydride as H+ (the metal is reduced by two), or the N-H, O-H or S-H of
+/// a bound amine, water or alcohol, which becomes an amido, hydroxo or alkoxo group (the
+/// step of Buchwald-Hartwig amination after the amine binds; Hartwig 2010, ch. 19). A base
+/// named takes the proton and leaves as its conjugate acid.
+pub fn deprotonation(cx: &mut Ctx, token: &str, base: Option<&str>) -> Result<Complex, StepError> {
     let slot = cx.slot(token)?;
     let b = cx.group(slot)?;
-    let is_h = structure(b)
-        .map(|m| {
-            m.atoms.iter().filter(|a| !a.is_star()).count() == 1
-                && m.atoms.iter().any(|a| a.z == periodic::H)
-        })
-        .unwrap_or(false);
-    if !is_h {
-        return refuse("deprotonation at the metal removes a hydride (H) as H+");
+    let m = structure(b)?;
+    let is_h = m.atoms.iter().filter(|a| !a.is_star()).count() == 1
+        && m.atoms.iter().any(|a| a.z == periodic::H);
+    let product = if is_h {
+        remove(cx.c, slot)?
+    } else {
+        // the donor atom's proton: N, O or S with a hydrogen, in a neutral donor
+        if b.mode().class.x > 0 || m.star_count() > 0 {
+            return refuse(format!(
+                "deprotonation takes a hydride (H) from the metal, or the proton of a bound \
+                 amine, water or alcohol; {} is {}",
+                b.ligand.key,
+                b.mode().class
+            ));
+        }
+        let at = [periodic::N, periodic::O, periodic::S]
+            .iter()
+            .find_map(|&z| (0..m.atoms.len()).find(|&i| m.atoms[i].z == z && m.atoms[i].h > 0))
+            .ok_or_else(|| {
+                StepError::Refused(format!(
+                    "{} is neither a hydride nor a donor with an N-H, O-H or S-H proton",
+                    b.ligand.key
+                ))
+            })?;
+        let mut g = m.clone();
+        g.atoms[at].h -= 1;
+        let s = g.add_atom(Atom::star());
+        g.add_bond(at, s, 1);
+        let l = cx.made(&g);
+        swap(cx.c, slot, &l, x_mode(&l))?
+    };
+    match base {
+        None => cx.leaves(proton()),
+        Some(t) => {
+            let r = cx.reagent(t)?;
+            let parts = r.species.structure.components();
+            // the base's most basic site: an anionic atom, then an amine or pyridine N, a
+            // phosphine P, an ether or water O
+            let rank = |p: &Molecule, i: usize| -> Option<u8> {
+                let x = p.atoms[i];
+                match (x.z, x.charge) {
+                    (_, q) if q < 0 => Some(0),
+                    (periodic::N, 0) if x.h == 0 || !x.aromatic => Some(1),
+                    (15, 0) => Some(2),
+                    (periodic::O, 0) => Some(3),
+                    _ => None,
+                }
+            };
+            let site = parts
+                .iter()
+                .enumerate()
+                .flat_map(|(k, p)| {
+                    (0..p.atoms.len()).filter_map(move |i| rank(p, i).map(|r| (r, k, i)))
+                })
+                .min()
+                .map(|(_, k, i)| (k, i));
+            let Some((k, i)) = site else {
+                return refuse(format!(
+                    "{} has no basic site to take the proton",
+                    r.species.name
+                ));
+            };
+            cx.enters(r.species.clone());
+            for (j, p) in parts.into_iter().enumerate() {
+                let mut p = p;
+                if j == k {
+                    p.atoms[i].h += 1;
+                    p.atoms[i].charge += 1;
+                }
+                let name = name_species(&p, None, cx.lookup);
+                cx.leaves(Species::new(name, p));
+            }
+        }
     }
-    cx.leaves(proton());
-    recharge(&remove(cx.c, slot)?, -1)
+    recharge(&product, -1)
 }
 
 pub fn proton() -> Species {

@@ -207,6 +207,19 @@ const METAL_FIELDS: &[&str] = &[
     "notes",
 ];
 
+/// Fields a step's JSON line adds to the product's report.
+const STEP_FIELDS: &[&str] = &[
+    "step",
+    "product",
+    "changes",
+    "equation",
+    "equation_text",
+    "step_notes",
+    "composition",
+];
+
+const SPECIES_FIELDS: &[&str] = &["name", "formula", "smiles", "charge", "count"];
+
 const ERROR_FIELDS: &[&str] = &["schema", "input", "error", "column", "suggestion"];
 
 fn check_report(v: &Value, input: &str) {
@@ -865,4 +878,78 @@ fn ligands_paths_shows_the_config_dir() {
         "{}",
         r.show()
     );
+}
+
+#[test]
+fn count_json_gives_the_composition() {
+    // Wilkinson's catalyst is C54H45ClP3Rh (Hill formula; e.g. the supplier catalogues'
+    // listing of chlorotris(triphenylphosphine)rhodium(I), common practice)
+    let s = Scratch::new("composition");
+    let r = s.run(&["count", "--json", "RhCl(PPh3)3", "[Co(NH3)6]Cl3"]);
+    assert_eq!(r.code, Some(0), "{}", r.show());
+    let lines = r.json_lines();
+    assert_eq!(lines[0]["composition"], "C54H45ClP3Rh");
+    // counter-ions are not part of the complex ion
+    assert_eq!(lines[1]["composition"], "CoH18N6");
+}
+
+#[test]
+fn step_json_lines_carry_the_equation() {
+    let s = Scratch::new("stepjson");
+    let r = s.run(&["step", "--json", "[PdCl4]2-", "substitution Cl C2H4", "dissociation Cl"]);
+    assert_eq!(r.code, Some(0), "{}", r.show());
+    let lines = r.json_lines();
+    assert_eq!(lines.len(), 2, "{}", r.show());
+    for v in &lines {
+        for f in STEP_FIELDS {
+            assert!(has(v, f), "step line lacks {f:?}: {v}");
+        }
+        for side in ["enters", "leaves"] {
+            for sp in v["equation"][side].as_array().expect("a list") {
+                for f in SPECIES_FIELDS {
+                    assert!(has(sp, f), "species lacks {f:?}: {sp}");
+                }
+            }
+        }
+    }
+    let first = &lines[0];
+    assert_eq!(first["equation"]["enters"][0]["formula"], "C2H4");
+    assert_eq!(first["equation"]["leaves"][0]["formula"], "Cl");
+    assert_eq!(first["equation"]["leaves"][0]["charge"], -1);
+    assert_eq!(first["equation"]["leaves"][0]["smiles"], "[Cl-]");
+    assert_eq!(first["charge"], -1);
+    assert_eq!(first["composition"], "C2H4Cl3Pd");
+    assert_eq!(first["metals"][0]["oxidation_state"], 2);
+    // the readable report prints the equation in one line
+    let r = s.run(&["step", "[PdCl4]2-", "substitution Cl C2H4"]);
+    assert!(
+        r.stdout.contains("[PdCl4]2- + C2H4 -> [Pd(η2-C2H4)Cl3]- + Cl-"),
+        "{}",
+        r.show()
+    );
+}
+
+#[test]
+fn step_cautions_name_what_enters_and_defer_to_the_sds() {
+    let s = Scratch::new("stephaz");
+    let r = s.run(&["step", "IrCl(CO)(PPh3)2", "oxidative-addition MeI"]);
+    assert_eq!(r.code, Some(0), "{}", r.show());
+    assert!(r.stdout.contains("MeI entering: H301"), "{}", r.show());
+    assert!(r.stdout.contains("safety data sheet"), "{}", r.show());
+    let r = s.run(&["step", "--json", "IrCl(CO)(PPh3)2", "oxidative-addition MeI"]);
+    let v = &r.json_lines()[0];
+    assert!(v["equation"]["enters"][0]["ghs"]
+        .as_array()
+        .is_some_and(|a| a.iter().any(|x| x == "H351")));
+}
+
+#[test]
+fn unreadable_reagents_are_refused_with_the_ways_to_write_them() {
+    let s = Scratch::new("badreagent");
+    let r = s.run(&["step", "Pd(PPh3)2", "oxidative-addition Qx7"]);
+    assert_eq!(r.code, Some(2), "{}", r.show());
+    assert!(r.stderr.contains("A-B") && r.stderr.contains("SMILES"), "{}", r.show());
+    let r = s.run(&["ligands", "--substrates", "boronic"]);
+    assert_eq!(r.code, Some(0), "{}", r.show());
+    assert!(r.stdout.contains("PhB(OH)2"), "{}", r.show());
 }

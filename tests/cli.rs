@@ -896,7 +896,13 @@ fn count_json_gives_the_composition() {
 #[test]
 fn step_json_lines_carry_the_equation() {
     let s = Scratch::new("stepjson");
-    let r = s.run(&["step", "--json", "[PdCl4]2-", "substitution Cl C2H4", "dissociation Cl"]);
+    let r = s.run(&[
+        "step",
+        "--json",
+        "[PdCl4]2-",
+        "substitution Cl C2H4",
+        "dissociation Cl",
+    ]);
     assert_eq!(r.code, Some(0), "{}", r.show());
     let lines = r.json_lines();
     assert_eq!(lines.len(), 2, "{}", r.show());
@@ -923,7 +929,8 @@ fn step_json_lines_carry_the_equation() {
     // the readable report prints the equation in one line
     let r = s.run(&["step", "[PdCl4]2-", "substitution Cl C2H4"]);
     assert!(
-        r.stdout.contains("[PdCl4]2- + C2H4 -> [Pd(η2-C2H4)Cl3]- + Cl-"),
+        r.stdout
+            .contains("[PdCl4]2- + C2H4 -> [Pd(η2-C2H4)Cl3]- + Cl-"),
         "{}",
         r.show()
     );
@@ -936,7 +943,12 @@ fn step_cautions_name_what_enters_and_defer_to_the_sds() {
     assert_eq!(r.code, Some(0), "{}", r.show());
     assert!(r.stdout.contains("MeI entering: H301"), "{}", r.show());
     assert!(r.stdout.contains("safety data sheet"), "{}", r.show());
-    let r = s.run(&["step", "--json", "IrCl(CO)(PPh3)2", "oxidative-addition MeI"]);
+    let r = s.run(&[
+        "step",
+        "--json",
+        "IrCl(CO)(PPh3)2",
+        "oxidative-addition MeI",
+    ]);
     let v = &r.json_lines()[0];
     assert!(v["equation"]["enters"][0]["ghs"]
         .as_array()
@@ -948,7 +960,11 @@ fn unreadable_reagents_are_refused_with_the_ways_to_write_them() {
     let s = Scratch::new("badreagent");
     let r = s.run(&["step", "Pd(PPh3)2", "oxidative-addition Qx7"]);
     assert_eq!(r.code, Some(2), "{}", r.show());
-    assert!(r.stderr.contains("A-B") && r.stderr.contains("SMILES"), "{}", r.show());
+    assert!(
+        r.stderr.contains("A-B") && r.stderr.contains("SMILES"),
+        "{}",
+        r.show()
+    );
     let r = s.run(&["ligands", "--substrates", "boronic"]);
     assert_eq!(r.code, Some(0), "{}", r.show());
     assert!(r.stdout.contains("PhB(OH)2"), "{}", r.show());

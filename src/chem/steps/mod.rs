@@ -254,6 +254,7 @@ const ALIASES: &[(&str, &str)] = &[
 impl Step {
     /// Read "oxidative-addition H2", "ring-slip Cp 3", "migratory-insertion C3H6 H 2,1", ...
     pub fn parse(text: &str) -> Result<Step, StepError> {
+        let text = plain_text(text);
         let words: Vec<&str> = text.split_whitespace().collect();
         let Some((&verb, args)) = words.split_first() else {
             return Err(StepError::Usage(
@@ -524,6 +525,28 @@ impl Step {
     pub fn beta_hydride(group: String) -> Step {
         Step::BetaHydrideElimination { group, which: None }
     }
+}
+
+/// Text pasted from papers brought to what the step words use: sub- and superscript digits
+/// and signs, the hyphens and dashes U+2010-U+2015 and the minus sign, no-break and
+/// zero-width spaces ("η²-C₂H₄", "Ph–Br", "oxidative‑addition").
+fn plain_text(text: &str) -> String {
+    const SUB: &str = "₀₁₂₃₄₅₆₇₈₉";
+    const SUP: &str = "⁰¹²³⁴⁵⁶⁷⁸⁹";
+    text.chars()
+        .filter_map(|c| match c {
+            '\u{2010}'..='\u{2015}' | '\u{2212}' | '⁻' | '₋' => Some('-'),
+            '⁺' | '₊' => Some('+'),
+            '\u{a0}' | '\u{2007}' | '\u{202f}' => Some(' '),
+            '\u{200b}' | '\u{200c}' | '\u{200d}' | '\u{feff}' => None,
+            c => Some(
+                SUB.chars()
+                    .position(|s| s == c)
+                    .or_else(|| SUP.chars().position(|s| s == c))
+                    .map_or(c, |i| char::from(b'0' + i as u8)),
+            ),
+        })
+        .collect()
 }
 
 fn step_list() -> String {

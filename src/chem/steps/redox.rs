@@ -80,6 +80,12 @@ pub fn joined_name(m: &Molecule, a: &str, b: &str, cx: &Ctx) -> String {
     if only_ch {
         return m.composition().to_string();
     }
+    // a hydrogen joined to a group (an aldehyde, an amine): the molecule's condensed formula
+    if a == "H" || b == "H" {
+        if let Some(t) = crate::chem::condensed::print_group(m, cx.lookup) {
+            return t;
+        }
+    }
     format!("{a}-{b}")
 }
 

@@ -685,20 +685,30 @@ impl serde::Serialize for Composition {
 /// alphabetically (Hill, J. Am. Chem. Soc. 1900, 22, 478).
 impl fmt::Display for Composition {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        let mut items: Vec<(&str, u32)> = self.elements().collect();
         let carbon = self.count(periodic::C) > 0;
-        items.sort_by(|a, b| {
-            let rank = |s: &str| match (carbon, s) {
-                (true, "C") => 0,
-                (true, "H") => 1,
-                _ => 2,
-            };
-            rank(a.0).cmp(&rank(b.0)).then(a.0.cmp(b.0))
-        });
-        for (s, n) in items {
-            write!(f, "{s}")?;
-            if n != 1 {
-                write!(f, "{n}")?;
+        let rank = |z: u8| -> (u8, &'static str) {
+            match (carbon, z) {
+                (true, periodic::C) => (0, ""),
+                (true, periodic::H) => (1, ""),
+                _ => (2, symbol(z)),
+            }
+        };
+        // a handful of elements, sorted on the stack (on the heap past 24)
+        let mut stack: [(u8, u32); 24] = [(0, 0); 24];
+        let mut heap: Vec<(u8, u32)> = Vec::new();
+        let items: &mut [(u8, u32)] = if self.0.len() <= stack.len() {
+            let n = self.0.len();
+            stack[..n].copy_from_slice(&self.0);
+            &mut stack[..n]
+        } else {
+            heap.extend_from_slice(&self.0);
+            &mut heap
+        };
+        items.sort_unstable_by(|a, b| rank(a.0).cmp(&rank(b.0)));
+        for &(z, count) in items.iter() {
+            f.write_str(symbol(z))?;
+            if count != 1 {
+                write!(f, "{count}")?;
             }
         }
         Ok(())

@@ -202,27 +202,21 @@ pub fn parse_set_all(file: &str, text: &str, origin: &str) -> Set {
             };
         }
     };
-    let mut ligands = Vec::new();
     let mut errors = Vec::new();
-    for spanned in raw.ligand {
-        let span = spanned.span();
-        let raw = spanned.into_inner();
-        let key = raw.key.get_ref().clone();
-        match convert(raw, origin) {
-            Ok(l) => ligands.push(l),
-            Err((msg, sub)) => errors.push(at(Some(sub.unwrap_or(span)), Some(key), msg)),
-        }
-    }
-    let mut substrates = Vec::new();
-    for spanned in raw.substrate {
-        let span = spanned.span();
-        let raw = spanned.into_inner();
-        let key = raw.key.get_ref().clone();
-        match convert_substrate(raw, origin) {
-            Ok(d) => substrates.push(d),
-            Err((msg, sub)) => errors.push(at(Some(sub.unwrap_or(span)), Some(key), msg)),
-        }
-    }
+    let ligands = convert_all(
+        raw.ligand,
+        &mut errors,
+        &at,
+        |r: &RawLigand| r.key.get_ref().clone(),
+        |r| convert(r, origin),
+    );
+    let substrates = convert_all(
+        raw.substrate,
+        &mut errors,
+        &at,
+        |r: &RawSubstrate| r.key.get_ref().clone(),
+        |r| convert_substrate(r, origin),
+    );
     Set {
         ligands,
         substrates,
@@ -268,6 +262,27 @@ fn convert_substrate(raw: RawSubstrate, origin: &str) -> Result<SubstrateDef, Pr
 }
 
 type Problem = (String, Option<Range<usize>>);
+
+/// Convert every entry of one kind; a bad entry is reported with its key and skipped.
+fn convert_all<R, T>(
+    raw: Vec<Spanned<R>>,
+    errors: &mut Vec<SetError>,
+    at: &dyn Fn(Option<Range<usize>>, Option<String>, String) -> SetError,
+    key: impl Fn(&R) -> String,
+    convert: impl Fn(R) -> Result<T, Problem>,
+) -> Vec<T> {
+    let mut out = Vec::new();
+    for spanned in raw {
+        let span = spanned.span();
+        let raw = spanned.into_inner();
+        let k = key(&raw);
+        match convert(raw) {
+            Ok(x) => out.push(x),
+            Err((msg, sub)) => errors.push(at(Some(sub.unwrap_or(span)), Some(k), msg)),
+        }
+    }
+    out
+}
 
 fn convert(raw: RawLigand, origin: &str) -> Result<LigandDef, Problem> {
     let key_span = raw.key.span();

@@ -1151,7 +1151,7 @@ fn has_metal_token(text: &str) -> bool {
 }
 
 /// "3+", "2-", "+", "-", "+3" as a signed number.
-fn charge_value(text: &str) -> Option<i32> {
+pub(crate) fn charge_value(text: &str) -> Option<i32> {
     let t = text.trim();
     let (digits, sign) = if let Some(d) = t.strip_suffix('+') {
         (d, 1)

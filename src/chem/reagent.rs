@@ -307,26 +307,7 @@ fn set_charge(mut m: Molecule, q: i32) -> Molecule {
 }
 
 fn charge_of(text: &str) -> Option<i32> {
-    let t = text.trim();
-    let (digits, sign) = if let Some(d) = t.strip_suffix('+') {
-        (d, 1)
-    } else if let Some(d) = t.strip_suffix('-') {
-        (d, -1)
-    } else if let Some(d) = t.strip_prefix('+') {
-        (d, 1)
-    } else if let Some(d) = t.strip_prefix('-') {
-        (d, -1)
-    } else {
-        return None;
-    };
-    if digits.is_empty() {
-        return Some(sign);
-    }
-    digits
-        .parse::<i32>()
-        .ok()
-        .filter(|&n| n <= 9)
-        .map(|n| sign * n)
+    super::formula::charge_value(text)
 }
 
 fn matching(text: &str) -> Option<usize> {

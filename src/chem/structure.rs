@@ -31,18 +31,6 @@ fn err<T>(line: usize, message: impl Into<String>) -> Result<T, StructureError> 
     })
 }
 
-/// The elements of the periodic table (IUPAC), H to Og.
-const ELEMENTS: [&str; 118] = [
-    "H", "He", "Li", "Be", "B", "C", "N", "O", "F", "Ne", "Na", "Mg", "Al", "Si", "P", "S", "Cl",
-    "Ar", "K", "Ca", "Sc", "Ti", "V", "Cr", "Mn", "Fe", "Co", "Ni", "Cu", "Zn", "Ga", "Ge", "As",
-    "Se", "Br", "Kr", "Rb", "Sr", "Y", "Zr", "Nb", "Mo", "Tc", "Ru", "Rh", "Pd", "Ag", "Cd", "In",
-    "Sn", "Sb", "Te", "I", "Xe", "Cs", "Ba", "La", "Ce", "Pr", "Nd", "Pm", "Sm", "Eu", "Gd", "Tb",
-    "Dy", "Ho", "Er", "Tm", "Yb", "Lu", "Hf", "Ta", "W", "Re", "Os", "Ir", "Pt", "Au", "Hg", "Tl",
-    "Pb", "Bi", "Po", "At", "Rn", "Fr", "Ra", "Ac", "Th", "Pa", "U", "Np", "Pu", "Am", "Cm", "Bk",
-    "Cf", "Es", "Fm", "Md", "No", "Lr", "Rf", "Db", "Sg", "Bh", "Hs", "Mt", "Ds", "Rg", "Cn", "Nh",
-    "Fl", "Mc", "Lv", "Ts", "Og",
-];
-
 /// Normalise an element symbol ("CL" -> "Cl", "C12" -> "C") and check it is one; deuterium
 /// reads as hydrogen.
 fn symbol(raw: &str, line: usize) -> Result<String, StructureError> {
@@ -56,7 +44,7 @@ fn symbol(raw: &str, line: usize) -> Result<String, StructureError> {
     if s == "D" {
         return Ok("H".into());
     }
-    if !ELEMENTS.contains(&s.as_str()) {
+    if super::periodic::number(&s).is_none_or(|z| z == 0) {
         return err(line, format!("'{t}' is not an element symbol"));
     }
     Ok(s)

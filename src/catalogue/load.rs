@@ -224,15 +224,21 @@ pub fn parse_set_all(file: &str, text: &str, origin: &str) -> Set {
     }
 }
 
-fn convert_substrate(raw: RawSubstrate, origin: &str) -> Result<SubstrateDef, Problem> {
-    let key_span = raw.key.span();
-    let key = raw.key.into_inner();
+/// The entry's key, which must be one word as it is typed in `place`.
+fn one_word(key: Spanned<String>, place: &str) -> Result<(String, Range<usize>), Problem> {
+    let span = key.span();
+    let key = key.into_inner();
     if key.is_empty() || key.chars().any(char::is_whitespace) {
         return Err((
-            "the key must be one word with no spaces, as written in steps".into(),
-            Some(key_span),
+            format!("the key must be one word with no spaces, as written in {place}"),
+            Some(span),
         ));
     }
+    Ok((key, span))
+}
+
+fn convert_substrate(raw: RawSubstrate, origin: &str) -> Result<SubstrateDef, Problem> {
+    let (key, key_span) = one_word(raw.key, "steps")?;
     if !raw.hazards.is_empty() && raw.hazard_source.as_deref().is_none_or(str::is_empty) {
         return Err((
             "hazards need hazard_source (regulation, safety data sheet or \"from memory\")".into(),
@@ -285,14 +291,7 @@ fn convert_all<R, T>(
 }
 
 fn convert(raw: RawLigand, origin: &str) -> Result<LigandDef, Problem> {
-    let key_span = raw.key.span();
-    let key = raw.key.into_inner();
-    if key.is_empty() || key.chars().any(char::is_whitespace) {
-        return Err((
-            "the key must be one word with no spaces, as written in formulas".into(),
-            Some(key_span),
-        ));
-    }
+    let (key, key_span) = one_word(raw.key, "formulas")?;
     if !FAMILIES.contains(&raw.family.as_str()) {
         return Err((
             format!(

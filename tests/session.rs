@@ -34,7 +34,13 @@ const FORMULAS: &[&str] = &[
 
 fn commit(s: &mut Session, parent: Option<u64>, action: &str, f: &str) -> u64 {
     let c = parse(f, cat()).expect("formula");
-    s.commit(parent, action, &c, &count(&c)).expect("commit")
+    let change = if parent.is_none() {
+        nonet::session::Change::Start
+    } else {
+        nonet::session::Change::Edit
+    };
+    s.commit(parent, action, &c, &count(&c), change)
+        .expect("commit")
 }
 
 proptest! {

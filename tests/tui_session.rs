@@ -36,7 +36,13 @@ fn planner(formula: &str, tag: &str) -> (App, std::path::PathBuf) {
     let c = parse(formula, cat.as_ref()).expect("formula");
     let mut s = Session::open(&dir, "t").expect("session");
     let root = s
-        .commit(None, "start", &c, &nonet::chem::count(&c))
+        .commit(
+            None,
+            "start",
+            &c,
+            &nonet::chem::count(&c),
+            nonet::session::Change::Start,
+        )
         .expect("root");
     let mut app = App::new(cat, c, "test".into(), false);
     app.session = Some(s);

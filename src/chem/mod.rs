@@ -6,6 +6,7 @@ pub mod cluster;
 pub mod complex;
 pub mod condensed;
 pub mod count;
+pub mod cycle;
 pub mod derived;
 pub mod edit;
 pub mod element;

@@ -78,7 +78,8 @@ pub struct Preview {
     pub mechanism: Option<Mechanism>,
     /// A step's equation in one line, what nonet chose on the way, and the hazards on record
     /// for what enters (name, GHS statements).
-    pub equation: Option<String>,
+    pub equation: Option<super::species::Equation>,
+    pub equation_text: Option<String>,
     pub step_notes: Vec<String>,
     pub entering_hazards: Vec<(String, Vec<String>)>,
 }
@@ -148,6 +149,7 @@ pub fn preview(
         donor,
         mechanism,
         equation: None,
+        equation_text: None,
         step_notes: Vec::new(),
         entering_hazards: Vec::new(),
     })
@@ -167,7 +169,8 @@ pub fn from_step(before: &Complex, o: &Outcome) -> Preview {
         entering: None,
         donor: None,
         mechanism: None,
-        equation: Some(o.equation_text()),
+        equation: Some(o.equation.clone()),
+        equation_text: Some(o.equation_text()),
         step_notes: o.notes.clone(),
         entering_hazards: o
             .equation

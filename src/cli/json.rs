@@ -279,6 +279,37 @@ pub fn write_substrate(
     out.write_all(b"\n")
 }
 
+/// The closing line of `nonet step --json`: `{"schema","input","path","closed","closed_at",
+/// "net":{"consumed","formed"}}`; `closed_at` is the step that came back to an earlier
+/// intermediate (null when the path is open).
+pub fn write_path(
+    out: &mut impl Write,
+    input: &str,
+    path: &[String],
+    closed: Option<(usize, usize)>,
+    net: &crate::chem::cycle::Net,
+) -> io::Result<()> {
+    let mut buf = Vec::new();
+    buf.extend_from_slice(b"{\"schema\":1,\"input\":");
+    jsonw::string(&mut buf, input);
+    buf.extend_from_slice(b",\"path\":");
+    let _ = serde_json::to_writer(&mut buf, path);
+    let _ = write!(
+        buf,
+        ",\"closed\":{},\"closed_at\":{}",
+        closed.is_some(),
+        closed.map_or("null".to_string(), |(_, j)| j.to_string())
+    );
+    buf.extend_from_slice(b",\"net\":{\"consumed\":");
+    terms(&mut buf, &net.consumed);
+    buf.extend_from_slice(b",\"formed\":");
+    terms(&mut buf, &net.formed);
+    buf.extend_from_slice(b"},\"net_text\":");
+    jsonw::string(&mut buf, &net.text());
+    buf.extend_from_slice(b"}\n");
+    out.write_all(&buf)
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -458,7 +458,13 @@ fn plan(
         if let Some(s) = log.as_mut() {
             let parent = s.last().map(|v| v.id);
             let r = chem::count(&complex);
-            match s.commit(parent, &format!("start: {title}"), &complex, &r) {
+            match s.commit(
+                parent,
+                &format!("start: {title}"),
+                &complex,
+                &r,
+                crate::session::Change::Start,
+            ) {
                 Ok(id) => current = Some(id),
                 Err(e) => eprintln!("warning: {e}"),
             }
@@ -751,6 +757,7 @@ fn step(
                         &format!("start: {formula}"),
                         &complex,
                         &chem::count(&complex),
+                        crate::session::Change::Start,
                     )?
                 }
             };
@@ -761,6 +768,9 @@ fn step(
     let mut out = BufWriter::new(stdout.lock());
     let mut buf = Vec::new();
     let mut input = formula.to_string();
+    // the path: intermediates (start first) and the equation of each step
+    let mut path = vec![complex.formula(false)];
+    let mut equations = Vec::new();
     for text in steps {
         let outcome =
             chem::steps::Step::parse(text).and_then(|s| chem::steps::take(&complex, &s, &cat));
@@ -768,7 +778,13 @@ fn step(
             Ok(o) => {
                 let mut variant = None;
                 if let Some((s, parent)) = log.as_mut() {
-                    let id = s.commit(Some(*parent), &o.step.to_string(), &o.product, &o.after)?;
+                    let id = s.commit(
+                        Some(*parent),
+                        &o.step.to_string(),
+                        &o.product,
+                        &o.after,
+                        crate::session::Change::Step(&o.equation),
+                    )?;
                     *parent = id;
                     variant = Some((s.name.clone(), id));
                 }
@@ -786,6 +802,8 @@ fn step(
                 // sees it at once
                 out.flush()?;
                 input = o.after.formula.clone();
+                path.push(o.after.formula.clone());
+                equations.push(o.equation);
                 complex = o.product;
             }
             Err(e) => {
@@ -798,6 +816,15 @@ fn step(
                 return Ok(Status::Rejected);
             }
         }
+    }
+    // the path's end: where it closed, and what it consumed and formed
+    let closed = chem::cycle::closure(&path);
+    let (from, to) = closed.unwrap_or((0, equations.len()));
+    let net = chem::cycle::net(&equations[from..to]);
+    if json_out {
+        json::write_path(&mut out, formula, &path, closed, &net)?;
+    } else {
+        text::write_path(&mut out, &net, closed, ascii)?;
     }
     out.flush()?;
     Ok(Status::Ok)

@@ -365,3 +365,25 @@ pub fn write_substrate(
     }
     Ok(())
 }
+/// The end of a path of steps: its net reaction, and whether it closed a cycle.
+pub fn write_path(
+    out: &mut impl Write,
+    net: &crate::chem::cycle::Net,
+    closed: Option<(usize, usize)>,
+    ascii: bool,
+) -> io::Result<()> {
+    let mut line = format!("net: {}\n", net.text());
+    line.push_str(&match closed {
+        Some((0, j)) => format!("cycle closed at step {j}: the start complex is back\n"),
+        Some((i, j)) => format!(
+            "cycle closed at step {j}: back to the product of step {i} (the net is of steps {}-{j})\n",
+            i + 1
+        ),
+        None => "open: no intermediate came back (the net is of the whole path)\n".to_string(),
+    });
+    if ascii {
+        out.write_all(ascii_text(&line).as_bytes())
+    } else {
+        out.write_all(line.as_bytes())
+    }
+}

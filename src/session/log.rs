@@ -22,6 +22,17 @@ pub struct Counts {
     pub unpaired_electrons: Option<u8>,
 }
 
+/// A species that entered or left a step, as the log keeps it.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct SpeciesRecord {
+    pub name: String,
+    /// Hill formula.
+    pub formula: String,
+    pub smiles: String,
+    pub charge: i32,
+    pub count: u32,
+}
+
 /// One line of the log.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 #[serde(tag = "kind", rename_all = "snake_case")]
@@ -36,6 +47,14 @@ pub enum Record {
         action: String,
         formula: String,
         counts: Counts,
+        /// "start", "step" (chemistry, with what entered and left) or "edit" (a free what-if
+        /// change); absent in logs written before it was recorded.
+        #[serde(default, skip_serializing_if = "Option::is_none")]
+        made_by: Option<String>,
+        #[serde(default, skip_serializing_if = "Vec::is_empty")]
+        enters: Vec<SpeciesRecord>,
+        #[serde(default, skip_serializing_if = "Vec::is_empty")]
+        leaves: Vec<SpeciesRecord>,
     },
     /// A name given to a variant.
     Bookmark {

@@ -10,8 +10,52 @@ pub mod log;
 use std::io;
 use std::path::{Path, PathBuf};
 
+use crate::chem::cycle::{self, Net};
+use crate::chem::molecule::Molecule;
+use crate::chem::species::{Equation, Species, Term};
 use crate::chem::{Complex, Report};
-pub use log::{Counts, LogProblem, Record};
+pub use log::{Counts, LogProblem, Record, SpeciesRecord};
+
+/// How a variant came about.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Made {
+    /// The complex a session (or a branch typed in) starts from.
+    Start,
+    /// An elementary step: chemistry, with its equation.
+    Step,
+    /// A free what-if change (a swap, an added or removed ligand): not chemistry that happened.
+    Edit,
+    /// Written before nonet recorded it.
+    Unknown,
+}
+
+impl Made {
+    pub fn word(self) -> &'static str {
+        match self {
+            Made::Start => "start",
+            Made::Step => "step",
+            Made::Edit => "edit",
+            Made::Unknown => "unknown",
+        }
+    }
+
+    fn read(word: Option<&str>, parent: Option<u64>, action: &str) -> Made {
+        match word {
+            Some("start") => Made::Start,
+            Some("step") => Made::Step,
+            Some("edit") => Made::Edit,
+            _ if parent.is_none() || action.starts_with("start") => Made::Start,
+            _ => Made::Unknown,
+        }
+    }
+}
+
+/// What is being committed.
+pub enum Change<'a> {
+    Start,
+    Step(&'a Equation),
+    Edit,
+}
 
 /// One committed state of the working complex.
 #[derive(Debug, Clone, PartialEq)]
@@ -22,6 +66,9 @@ pub struct Variant {
     pub action: String,
     pub formula: String,
     pub counts: Counts,
+    pub made: Made,
+    pub enters: Vec<SpeciesRecord>,
+    pub leaves: Vec<SpeciesRecord>,
 }
 
 /// A session's tree, and the log it is written to.
@@ -113,6 +160,9 @@ impl Session {
                     action,
                     formula,
                     counts,
+                    made_by,
+                    enters,
+                    leaves,
                     ..
                 } => {
                     if self.get(id).is_some() {
@@ -120,12 +170,15 @@ impl Session {
                     }
                     self.index.insert(id, self.variants.len());
                     self.variants.push(Variant {
+                        made: Made::read(made_by.as_deref(), parent, &action),
                         id,
                         parent,
                         time,
                         action,
                         formula,
                         counts,
+                        enters,
+                        leaves,
                     })
                 }
                 Record::Bookmark { id, name, .. } => {
@@ -172,8 +225,14 @@ impl Session {
         action: &str,
         complex: &Complex,
         report: &Report,
+        change: Change,
     ) -> Result<u64, SessionError> {
         let id = self.index.keys().map(|&v| v + 1).max().unwrap_or(0);
+        let (made, enters, leaves) = match change {
+            Change::Start => (Made::Start, Vec::new(), Vec::new()),
+            Change::Edit => (Made::Edit, Vec::new(), Vec::new()),
+            Change::Step(eq) => (Made::Step, records(&eq.enters), records(&eq.leaves)),
+        };
         let variant = Variant {
             id,
             parent,
@@ -181,6 +240,9 @@ impl Session {
             action: action.to_string(),
             formula: complex.formula(false),
             counts: counts(report),
+            made,
+            enters,
+            leaves,
         };
         let record = Record::Variant {
             nonet_session: log::FORMAT,
@@ -190,6 +252,9 @@ impl Session {
             action: variant.action.clone(),
             formula: variant.formula.clone(),
             counts: variant.counts.clone(),
+            made_by: Some(made.word().to_string()),
+            enters: variant.enters.clone(),
+            leaves: variant.leaves.clone(),
         };
         self.write(&record)?;
         self.index.insert(id, self.variants.len());
@@ -251,6 +316,55 @@ impl Session {
         path
     }
 
+    /// The earlier variant on its path that `id` is the same species as (the cycle it
+    /// closes), if any: the nearest one.
+    pub fn closes(&self, id: u64) -> Option<u64> {
+        let v = self.get(id)?;
+        let path = self.path_to(id);
+        path[..path.len().saturating_sub(1)]
+            .iter()
+            .rev()
+            .find(|&&a| self.get(a).is_some_and(|x| x.formula == v.formula))
+            .copied()
+    }
+
+    /// The net reaction of the steps from `from` (exclusive) down to `to` (inclusive) on one
+    /// path, with the changes that were not steps.
+    pub fn net(&self, from: u64, to: u64) -> PathNet {
+        let path = self.path_to(to);
+        let start = path.iter().position(|&i| i == from).map_or(0, |p| p + 1);
+        let mut equations = Vec::new();
+        let mut edits = 0;
+        let mut unrecorded = 0;
+        for &i in &path[start..] {
+            let Some(v) = self.get(i) else { continue };
+            match v.made {
+                Made::Step => equations.push(Equation {
+                    enters: terms(&v.enters),
+                    leaves: terms(&v.leaves),
+                }),
+                Made::Edit => edits += 1,
+                Made::Unknown => unrecorded += 1,
+                Made::Start => {}
+            }
+        }
+        PathNet {
+            net: cycle::net(&equations),
+            steps: equations.len(),
+            edits,
+            unrecorded,
+        }
+    }
+
+    /// Every closed cycle in the session: (the variant it comes back to, the variant that
+    /// closes it).
+    pub fn cycles(&self) -> Vec<(u64, u64)> {
+        self.variants
+            .iter()
+            .filter_map(|v| self.closes(v.id).map(|a| (a, v.id)))
+            .collect()
+    }
+
     /// Variants in tree order (each followed by its descendants), with their depth.
     pub fn tree(&self) -> Vec<(usize, &Variant)> {
         let mut out = Vec::with_capacity(self.variants.len());
@@ -282,6 +396,77 @@ impl Session {
         }
         out
     }
+}
+
+/// The net reaction of part of a path, and what in it was not a step.
+#[derive(Debug, Clone)]
+pub struct PathNet {
+    pub net: Net,
+    pub steps: usize,
+    /// Free edits on the way: the net is then not balanced by steps.
+    pub edits: usize,
+    /// Changes logged before nonet recorded equations.
+    pub unrecorded: usize,
+}
+
+impl PathNet {
+    /// The net equation, or why there is none.
+    pub fn text(&self) -> String {
+        if self.edits > 0 {
+            format!(
+                "not balanced by steps: {} free edit{} on the way ({})",
+                self.edits,
+                if self.edits == 1 { "" } else { "s" },
+                self.net.text()
+            )
+        } else if self.unrecorded > 0 {
+            "not known: some changes were logged before nonet recorded equations".to_string()
+        } else {
+            self.net.text()
+        }
+    }
+
+    /// Whether the net is a reaction the steps account for.
+    pub fn by_steps(&self) -> bool {
+        self.edits == 0 && self.unrecorded == 0
+    }
+}
+
+fn records(terms: &[Term]) -> Vec<SpeciesRecord> {
+    terms
+        .iter()
+        .map(|t| SpeciesRecord {
+            name: t.species.label(),
+            formula: t.species.formula(),
+            smiles: t.species.smiles(),
+            charge: t.species.charge(),
+            count: t.count,
+        })
+        .collect()
+}
+
+/// Species back from the log: the structure from its SMILES, an electron from an empty one.
+fn terms(records: &[SpeciesRecord]) -> Vec<Term> {
+    records
+        .iter()
+        .map(|r| {
+            let structure = Molecule::from_smiles(&r.smiles).unwrap_or_default();
+            let name = r.name.trim_end_matches(['+', '-']).to_string();
+            let mut species = Species::new(
+                if name.is_empty() {
+                    r.name.clone()
+                } else {
+                    name
+                },
+                structure,
+            );
+            species.electrons = species.structure.charge() - r.charge;
+            Term {
+                species,
+                count: r.count,
+            }
+        })
+        .collect()
 }
 
 /// The counts a variant keeps: those of its first metal.

@@ -524,7 +524,11 @@ impl App {
             Change::Edit(e) => describe(e, &self.complex),
             Change::Step(s) => s.to_string(),
         };
-        self.advance(p.after.clone(), &label);
+        let change = match &p.equation {
+            Some(eq) => crate::session::Change::Step(eq),
+            None => crate::session::Change::Edit,
+        };
+        self.advance(p.after.clone(), &label, change);
         if let Some(slot) = p.focus {
             if let Some(i) = self.slots().iter().position(|s| *s == slot) {
                 self.row = i;
@@ -537,12 +541,12 @@ impl App {
 
     /// Make `next` the working complex as a committed change: undo can step back, and the
     /// session log gets a new variant whose parent is the current one.
-    fn advance(&mut self, next: Complex, label: &str) {
+    fn advance(&mut self, next: Complex, label: &str, change: crate::session::Change) {
         self.undo.push((self.complex.clone(), self.variant));
         self.redo.clear();
         self.set_complex(next);
         let logged = match self.session.as_mut() {
-            Some(s) => match s.commit(self.variant, label, &self.complex, &self.report) {
+            Some(s) => match s.commit(self.variant, label, &self.complex, &self.report, change) {
                 Ok(id) => {
                     self.variant = Some(id);
                     format!(" (variant {id})")
@@ -818,7 +822,7 @@ impl App {
                 self.title = text.clone();
                 self.mode = Mode::Normal;
                 self.pending = Pending::Swap;
-                self.advance(c, &format!("typed {text}"));
+                self.advance(c, &format!("typed {text}"), crate::session::Change::Edit);
                 self.refresh_preview();
             }
             // stay in the formula line so the text can be mended

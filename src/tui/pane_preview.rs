@@ -102,7 +102,7 @@ fn lines<'a>(app: &App, p: &Preview, t: &Theme) -> Vec<Line<'a>> {
             if changed { t.warn() } else { t.title() },
         ),
     ]));
-    if let Some(eq) = &p.equation {
+    if let Some(eq) = &p.equation_text {
         out.push(row("equation", eq.clone(), t.text(), t));
     }
     for (name, codes) in &p.entering_hazards {

@@ -905,8 +905,15 @@ fn step_json_lines_carry_the_equation() {
     ]);
     assert_eq!(r.code, Some(0), "{}", r.show());
     let lines = r.json_lines();
-    assert_eq!(lines.len(), 2, "{}", r.show());
-    for v in &lines {
+    // one line per step, then the path's closing line
+    assert_eq!(lines.len(), 3, "{}", r.show());
+    let closing = &lines[2];
+    for f in ["schema", "input", "path", "closed", "closed_at", "net", "net_text"] {
+        assert!(has(closing, f), "closing line lacks {f:?}: {closing}");
+    }
+    assert_eq!(closing["closed"], false);
+    assert_eq!(closing["path"].as_array().map(Vec::len), Some(3));
+    for v in &lines[..2] {
         for f in STEP_FIELDS {
             assert!(has(v, f), "step line lacks {f:?}: {v}");
         }

@@ -34,6 +34,8 @@ pub struct SpeciesRecord {
 }
 
 /// One line of the log.
+// records are read and written one at a time; boxing the variant would only add noise
+#[allow(clippy::large_enum_variant)]
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 #[serde(tag = "kind", rename_all = "snake_case")]
 pub enum Record {

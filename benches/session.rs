@@ -40,6 +40,9 @@ fn bench(c: &mut Criterion) {
             action: format!("change {id}"),
             formula: formula.clone(),
             counts: counts.clone(),
+            made_by: Some("edit".into()),
+            enters: Vec::new(),
+            leaves: Vec::new(),
         };
         serde_json::to_writer(&mut f, &r).expect("write");
         f.write_all(b"\n").expect("write");

@@ -3,7 +3,7 @@
 
 use serde_json::{json, Value};
 
-use super::{Session, Variant};
+use super::{Session, SpeciesRecord, Variant};
 
 /// Which variants to write.
 pub enum Scope {
@@ -25,6 +25,27 @@ fn rows<'a>(s: &'a Session, scope: &Scope) -> Vec<(usize, &'a Variant)> {
     }
 }
 
+/// "C2H4 + H2": species as a side of an equation.
+fn side(list: &[SpeciesRecord]) -> String {
+    list.iter()
+        .map(|r| {
+            if r.count == 1 {
+                r.name.clone()
+            } else {
+                format!("{} {}", r.count, r.name)
+            }
+        })
+        .collect::<Vec<_>>()
+        .join(" + ")
+}
+
+/// The closed cycles among the rows written: (back to, closing variant).
+fn cycles_in(s: &Session, rows: &[(usize, &Variant)]) -> Vec<(u64, u64)> {
+    rows.iter()
+        .filter_map(|(_, v)| s.closes(v.id).map(|a| (a, v.id)))
+        .collect()
+}
+
 fn num(v: &Value) -> String {
     match v {
         Value::Number(n) => n.to_string(),
@@ -40,22 +61,36 @@ fn signed(v: &Value) -> String {
     }
 }
 
-/// A Markdown table, indented by depth in the tree.
+/// A Markdown table, indented by depth in the tree, then the closed cycles with their net
+/// reactions.
 pub fn markdown(s: &Session, scope: &Scope) -> String {
     let mut out = format!("## nonet session `{}`\n\n", s.name);
     out.push_str(
-        "| # | parent | change | formula | e | OS | d | CN | saturation | unpaired | bookmark |\n",
+        "| # | parent | change | in | out | formula | e | OS | d | CN | saturation | unpaired | bookmark |\n",
     );
-    out.push_str("|---|---|---|---|---|---|---|---|---|---|---|\n");
-    for (depth, v) in rows(s, scope) {
+    out.push_str("|---|---|---|---|---|---|---|---|---|---|---|---|---|\n");
+    let rows = rows(s, scope);
+    let cell = |t: &str| t.replace('|', "\\|");
+    for (depth, v) in &rows {
         let c = &v.counts;
+        let closes = s
+            .closes(v.id)
+            .map_or(String::new(), |a| format!(" (closes the cycle from #{a})"));
+        let made = match v.made {
+            super::Made::Edit => " (edit)",
+            _ => "",
+        };
         out.push_str(&format!(
-            "| {} | {} | {}{} | `{}` | {} | {} | {} | {} | {} | {} | {} |\n",
+            "| {} | {} | {}{}{}{} | {} | {} | `{}` | {} | {} | {} | {} | {} | {} | {} |\n",
             v.id,
             v.parent.map_or(String::new(), |p| p.to_string()),
-            "· ".repeat(depth),
-            v.action.replace('|', "\\|"),
-            v.formula.replace('|', "\\|"),
+            "· ".repeat(*depth),
+            cell(&v.action),
+            made,
+            closes,
+            cell(&side(&v.enters)),
+            cell(&side(&v.leaves)),
+            cell(&v.formula),
             num(&c.electron_count),
             signed(&c.oxidation_state),
             num(&c.d_electrons),
@@ -63,16 +98,35 @@ pub fn markdown(s: &Session, scope: &Scope) -> String {
             c.saturation,
             c.unpaired_electrons
                 .map_or(String::new(), |n| n.to_string()),
-            s.bookmark_of(v.id).unwrap_or("").replace('|', "\\|"),
+            cell(s.bookmark_of(v.id).unwrap_or("")),
         ));
+    }
+    let cycles = cycles_in(s, &rows);
+    if !cycles.is_empty() {
+        out.push_str("\n### Closed cycles\n\n");
+        for (from, to) in cycles {
+            let path: Vec<String> = s
+                .path_to(to)
+                .into_iter()
+                .skip_while(|&i| i != from)
+                .map(|i| format!("#{i}"))
+                .collect();
+            out.push_str(&format!(
+                "- {}: net {}\n",
+                path.join(" → "),
+                s.net(from, to).text()
+            ));
+        }
     }
     out
 }
 
-/// One JSON document: the session's name and its variants with their counts.
+/// One JSON document: the session's name, its variants with their counts, how each came
+/// about and what entered and left, and the closed cycles with their net reactions.
 pub fn json(s: &Session, scope: &Scope) -> String {
-    let variants: Vec<Value> = rows(s, scope)
-        .into_iter()
+    let rows = rows(s, scope);
+    let variants: Vec<Value> = rows
+        .iter()
         .map(|(depth, v)| {
             json!({
                 "id": v.id,
@@ -80,13 +134,50 @@ pub fn json(s: &Session, scope: &Scope) -> String {
                 "depth": depth,
                 "time": v.time,
                 "action": v.action,
+                "made_by": v.made.word(),
+                "enters": v.enters,
+                "leaves": v.leaves,
                 "formula": v.formula,
                 "counts": v.counts,
                 "bookmark": s.bookmark_of(v.id),
+                "closes": s.closes(v.id),
             })
         })
         .collect();
-    let doc = json!({ "schema": 1, "session": s.name, "variants": variants });
+    let cycles: Vec<Value> = cycles_in(s, &rows)
+        .into_iter()
+        .map(|(from, to)| {
+            let n = s.net(from, to);
+            let species = |terms: &[crate::chem::species::Term]| -> Vec<Value> {
+                terms
+                    .iter()
+                    .map(|t| {
+                        json!({
+                            "name": t.species.label(),
+                            "formula": t.species.formula(),
+                            "smiles": t.species.smiles(),
+                            "charge": t.species.charge(),
+                            "count": t.count,
+                        })
+                    })
+                    .collect()
+            };
+            let path: Vec<u64> = s
+                .path_to(to)
+                .into_iter()
+                .skip_while(|&i| i != from)
+                .collect();
+            json!({
+                "from": from,
+                "to": to,
+                "path": path,
+                "net": {"consumed": species(&n.net.consumed), "formed": species(&n.net.formed)},
+                "net_text": n.text(),
+                "balanced_by_steps": n.by_steps(),
+            })
+        })
+        .collect();
+    let doc = json!({ "schema": 1, "session": s.name, "variants": variants, "cycles": cycles });
     serde_json::to_string_pretty(&doc).unwrap_or_default() + "\n"
 }
 
@@ -100,18 +191,22 @@ pub fn csv(s: &Session, scope: &Scope) -> String {
         }
     };
     let mut out = String::from(
-        "id,parent,depth,time,action,formula,electron_count,oxidation_state,d_electrons,\
-         coordination_number,saturation,unpaired_electrons,bookmark\n",
+        "id,parent,depth,time,action,made_by,enters,leaves,formula,electron_count,\
+         oxidation_state,d_electrons,coordination_number,saturation,unpaired_electrons,bookmark,\
+         closes\n",
     );
     for (depth, v) in rows(s, scope) {
         let c = &v.counts;
         out.push_str(&format!(
-            "{},{},{},{},{},{},{},{},{},{},{},{},{}\n",
+            "{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{}\n",
             v.id,
             v.parent.map_or(String::new(), |p| p.to_string()),
             depth,
             q(&v.time),
             q(&v.action),
+            v.made.word(),
+            q(&side(&v.enters)),
+            q(&side(&v.leaves)),
             q(&v.formula),
             num(&c.electron_count),
             num(&c.oxidation_state),
@@ -121,6 +216,7 @@ pub fn csv(s: &Session, scope: &Scope) -> String {
             c.unpaired_electrons
                 .map_or(String::new(), |n| n.to_string()),
             q(s.bookmark_of(v.id).unwrap_or("")),
+            s.closes(v.id).map_or(String::new(), |a| a.to_string()),
         ));
     }
     out

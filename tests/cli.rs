@@ -908,7 +908,15 @@ fn step_json_lines_carry_the_equation() {
     // one line per step, then the path's closing line
     assert_eq!(lines.len(), 3, "{}", r.show());
     let closing = &lines[2];
-    for f in ["schema", "input", "path", "closed", "closed_at", "net", "net_text"] {
+    for f in [
+        "schema",
+        "input",
+        "path",
+        "closed",
+        "closed_at",
+        "net",
+        "net_text",
+    ] {
         assert!(has(closing, f), "closing line lacks {f:?}: {closing}");
     }
     assert_eq!(closing["closed"], false);

@@ -83,7 +83,8 @@ pub enum Command {
         /// The session's name (see `nonet sessions`).
         #[arg(value_name = "SESSION")]
         session: String,
-        /// md, json or csv.
+        /// md, json, csv, or svg (the catalytic cycle as a figure: the last closed cycle, or
+        /// the one --path closes).
         #[arg(long, default_value = "md", value_name = "FORMAT")]
         format: String,
         /// Only the path from the start to this variant (an id or a bookmark name).
@@ -558,8 +559,20 @@ fn export(
         "md" | "markdown" => export::markdown(&s, &scope),
         "json" => export::json(&s, &scope),
         "csv" => export::csv(&s, &scope),
+        "svg" => {
+            use crate::session::figure;
+            let end = match &scope {
+                Scope::Path(id) => Some(*id),
+                Scope::Tree => figure::default_end(&s),
+            };
+            let Some(end) = end else {
+                eprintln!("error: session '{name}' has no variants to draw");
+                return Ok(Status::Rejected);
+            };
+            figure::svg(&s, &figure::cycle_ids(&s, end))
+        }
         other => {
-            eprintln!("error: unknown export format '{other}': use md, json or csv");
+            eprintln!("error: unknown export format '{other}': use md, json, csv or svg");
             return Ok(Status::Rejected);
         }
     };

@@ -5,6 +5,7 @@
 //! Plain files, no database: cluster home directories are often network file systems.
 
 pub mod export;
+pub mod figure;
 pub mod log;
 
 use std::io;

@@ -155,7 +155,8 @@ fn insertion_and_elimination_keys_act_on_the_selected_ligand() {
     press(&mut app, "d<enter>");
     assert!(app.complex.formula(false).contains("C2H4"));
     app.row = row_of(&app, "H");
-    press(&mut app, "P<enter>");
+    // P asks for a base; Enter with none lets the proton go free, Enter again commits
+    press(&mut app, "P<enter><enter>");
     assert_eq!(app.complex.charge, -1);
     press(&mut app, "p<enter>");
     assert_eq!(app.complex.charge, 0);

@@ -48,6 +48,24 @@ pub enum Action {
     StepAlphaElimination,
     StepProtonation,
     StepDeprotonation,
+    StepDissociation,
+    StepAssociation,
+    StepTransmetalation,
+    StepAbstraction,
+    StepNucleophilic,
+    StepElectrophilic,
+    StepSigmaBond,
+    StepProtonolysis,
+    StepMetalation,
+    StepCycloaddition,
+    StepCycloreversion,
+    StepCoupling,
+    /// Type any step as the CLI writes it.
+    StepTyped,
+    /// The next partner, alkene or regiochemistry of the step in the preview.
+    NextChoice,
+    /// The current path drawn as a cycle.
+    OpenCycle,
     /// The session's tree of variants.
     OpenTree,
     JumpToVariant,

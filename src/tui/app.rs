@@ -37,6 +37,8 @@ pub enum Mode {
     Compare,
     /// Ranked swaps for the selected ligand.
     Screen,
+    /// The current path drawn as a cycle.
+    Cycle,
 }
 
 /// What a typed line is for.
@@ -44,7 +46,31 @@ pub enum Mode {
 pub enum LineKind {
     Formula,
     Bookmark,
+    /// A ligand, reagent or step for a step being set up.
+    Ask(Ask),
+}
+
+/// What a step asks for before it can be previewed.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Ask {
     Substrate,
+    Ligand,
+    Transmetalating,
+    Abstractor,
+    Acid,
+    Nucleophile,
+    Electrophile,
+    SigmaReagent,
+    CHSubstrate,
+    Base,
+    Step,
+}
+
+impl Ask {
+    /// Whether the answer is a ligand (searched in the catalogue) rather than a reagent.
+    pub fn is_ligand(self) -> bool {
+        self == Ask::Ligand
+    }
 }
 
 impl LineKind {
@@ -52,7 +78,19 @@ impl LineKind {
         match self {
             LineKind::Formula => "formula",
             LineKind::Bookmark => "bookmark name",
-            LineKind::Substrate => "substrate to add (H2, CH3I, PhBr, A-B)",
+            LineKind::Ask(a) => match a {
+                Ask::Substrate => "substrate to add (H2, MeI, PhBr, A-B, SMILES)",
+                Ask::Ligand => "ligand to bind",
+                Ask::Transmetalating => "reagent that brings R (PhB(OH)2, MeZnCl, Bu3SnPh)",
+                Ask::Abstractor => "taken by (AgBF4, B(C6F5)3, [Ph3C]+)",
+                Ask::Acid => "acid (HCl, HBF4, HOTf)",
+                Ask::Nucleophile => "nucleophile (OH, MeOH, H2O, NaOMe)",
+                Ask::Electrophile => "electrophile (HBF4, MeOTf)",
+                Ask::SigmaReagent => "reagent A-B (H2, CH4, HSiPh3)",
+                Ask::CHSubstrate => "C-H substrate (PhH, H-C6F5)",
+                Ask::Base => "base (Et3N, NaOtBu), or Enter for none",
+                Ask::Step => "step, as the command line writes it",
+            },
         }
     }
 }
@@ -106,13 +144,6 @@ impl Default for ScreenView {
     }
 }
 
-/// Steps that join the selected ligand with a partner.
-#[derive(Debug, Clone, Copy)]
-enum PairStep {
-    Elimination,
-    Insertion,
-}
-
 /// CBC classes offered by the class filter, most common first.
 pub const CLASS_FILTERS: &[&str] = &["L", "X", "LX", "L2", "L2X", "L3", "X2", "Z", "L2X2", "X3"];
 
@@ -148,6 +179,22 @@ pub struct App {
     pub pending: Pending,
     pub preview: Option<Result<Preview, String>>,
     pub formula_input: String,
+    /// Catalogue ligands or substrates matching what is typed at a step's question, and the
+    /// one picked with the arrows (None: the text as typed).
+    pub prompt_hits: Vec<String>,
+    pub prompt_hit: Option<usize>,
+    /// The step a question is for, and the ligand it was asked about.
+    asking_for: Option<(Ask, Option<String>)>,
+    /// Other ways the step in the preview could go (partners, alkenes), and which is shown.
+    pub choices: Vec<Step>,
+    pub choice: usize,
+    /// Keys of ligands that left by dissociation on the path, most recent first (without a
+    /// session, kept here).
+    departed: Vec<String>,
+    /// The step that made the working complex, if it was one.
+    last_step: Option<Step>,
+    /// Scroll position of the cycle view.
+    pub cycle_scroll: u16,
     pub notice: Option<Notice>,
     pub help_scroll: u16,
     pub ascii: bool,
@@ -182,6 +229,14 @@ impl App {
             pending: Pending::Swap,
             preview: None,
             formula_input: String::new(),
+            prompt_hits: Vec::new(),
+            prompt_hit: None,
+            asking_for: None,
+            choices: Vec::new(),
+            choice: 0,
+            departed: Vec::new(),
+            last_step: None,
+            cycle_scroll: 0,
             notice: None,
             help_scroll: 0,
             ascii,
@@ -202,6 +257,7 @@ impl App {
             Mode::Tree => Context::Tree,
             Mode::Compare => Context::Compare,
             Mode::Screen => Context::Screen,
+            Mode::Cycle => Context::Help,
             Mode::Normal => match self.focus {
                 Focus::Complex => Context::Complex,
                 Focus::Catalogue => Context::Catalogue,
@@ -259,6 +315,10 @@ impl App {
                     _ => Mode::Normal,
                 }
             }
+            Action::OpenCycle => {
+                self.cycle_scroll = 0;
+                self.mode = Mode::Cycle;
+            }
             Action::Up => self.move_by(-1),
             Action::Down => self.move_by(1),
             Action::PageUp => self.move_by(-10),
@@ -283,7 +343,10 @@ impl App {
                     self.query.push(c);
                     self.refilter(true);
                 }
-                Mode::Line(_) => self.formula_input.push(c),
+                Mode::Line(_) => {
+                    self.formula_input.push(c);
+                    self.refresh_hits();
+                }
                 _ => {}
             },
             Action::DeleteChar => match self.mode {
@@ -293,6 +356,7 @@ impl App {
                 }
                 Mode::Line(_) => {
                     self.formula_input.pop();
+                    self.refresh_hits();
                 }
                 _ => {}
             },
@@ -301,7 +365,10 @@ impl App {
                     self.query.clear();
                     self.refilter(false);
                 }
-                Mode::Line(_) => self.formula_input.clear(),
+                Mode::Line(_) => {
+                    self.formula_input.clear();
+                    self.refresh_hits();
+                }
                 _ => {}
             },
             Action::LeaveInput => {
@@ -313,18 +380,46 @@ impl App {
             Action::StartFormula => self.start_line(LineKind::Formula),
             Action::SubmitFormula => match self.mode {
                 Mode::Line(LineKind::Bookmark) => self.submit_bookmark(),
-                Mode::Line(LineKind::Substrate) => self.submit_substrate(),
+                Mode::Line(LineKind::Ask(a)) => self.submit_answer(a),
                 _ => self.submit_formula(),
             },
-            Action::StepOxidativeAddition => self.start_line(LineKind::Substrate),
-            Action::StepReductiveElimination => self.pend_pair_step(PairStep::Elimination),
-            Action::StepInsertion => self.pend_pair_step(PairStep::Insertion),
-            Action::StepBetaElimination => self.pend_on_selected(Step::beta_hydride),
+            Action::StepOxidativeAddition => self.ask(Ask::Substrate, false),
+            Action::StepAssociation => self.ask(Ask::Ligand, false),
+            Action::StepTransmetalation => self.ask(Ask::Transmetalating, false),
+            Action::StepAbstraction => self.ask(Ask::Abstractor, true),
+            Action::StepNucleophilic => self.ask(Ask::Nucleophile, true),
+            Action::StepElectrophilic => self.ask(Ask::Electrophile, true),
+            Action::StepSigmaBond => self.ask(Ask::SigmaReagent, true),
+            Action::StepProtonolysis => self.ask(Ask::Acid, true),
+            Action::StepMetalation => self.ask(Ask::CHSubstrate, true),
+            Action::StepTyped => self.ask(Ask::Step, false),
+            Action::StepDissociation => self.pend_on_selected(Step::Dissociation),
+            Action::StepCycloaddition => self.pend_with_choices(|k| Step::Cycloaddition {
+                unsaturated: String::new(),
+                ligand: k,
+            }),
+            Action::StepCoupling => {
+                self.pend_with_choices(|k| Step::OxidativeCoupling(k, String::new()))
+            }
+            Action::StepCycloreversion => {
+                let seed = Step::Cycloreversion(String::new());
+                self.pend_choices(seed);
+            }
+            Action::NextChoice => self.next_choice(),
+            Action::StepReductiveElimination => {
+                self.pend_with_choices(|k| Step::ReductiveElimination(k, String::new()))
+            }
+            Action::StepInsertion => self.pend_with_choices(|k| Step::MigratoryInsertion {
+                inserting: k,
+                into: String::new(),
+                regio: None,
+            }),
+            Action::StepBetaElimination => self.pend_with_choices(Step::beta_hydride),
             Action::StepAlphaElimination => self.pend_on_selected(Step::AlphaElimination),
             Action::StepProtonation => {
                 self.set_pending(Pending::Step(Step::Protonation { acid: None }))
             }
-            Action::StepDeprotonation => self.pend_on_selected(Step::deprotonation),
+            Action::StepDeprotonation => self.ask(Ask::Base, true),
             Action::OpenTree => self.open_tree(),
             Action::JumpToVariant => self.jump_to_variant(),
             Action::StartBookmark => {
@@ -405,6 +500,18 @@ impl App {
     }
 
     fn move_by(&mut self, delta: i32) {
+        if let Mode::Line(_) = self.mode {
+            let n = self.prompt_hits.len();
+            if n > 0 {
+                let at = self.prompt_hit.map_or(-1, |i| i as i64) + delta as i64;
+                self.prompt_hit = Some(at.clamp(0, n as i64 - 1) as usize);
+            }
+            return;
+        }
+        if self.mode == Mode::Cycle {
+            self.cycle_scroll = (self.cycle_scroll as i32 + delta).max(0) as u16;
+            return;
+        }
         if self.mode == Mode::Help {
             self.help_scroll = (self.help_scroll as i32 + delta).max(0) as u16;
             return;
@@ -442,6 +549,8 @@ impl App {
 
     fn set_pending(&mut self, p: Pending) {
         self.pending = p;
+        self.choices.clear();
+        self.choice = 0;
         self.refresh_preview();
     }
 
@@ -528,6 +637,7 @@ impl App {
             Some(eq) => crate::session::Change::Step(eq),
             None => crate::session::Change::Edit,
         };
+        let before = self.complex.clone();
         self.advance(p.after.clone(), &label, change);
         if let Some(slot) = p.focus {
             if let Some(i) = self.slots().iter().position(|s| *s == slot) {
@@ -535,8 +645,75 @@ impl App {
             }
         }
         self.mode = Mode::Normal;
-        self.pending = Pending::Swap;
-        self.refresh_preview();
+        let step = match &p.change {
+            Change::Step(s) => Some(s.clone()),
+            Change::Edit(_) => None,
+        };
+        self.after_commit(&before, step);
+    }
+
+    /// After a change: select what it brought in, remember what left, and preview the step a
+    /// chemist would take next (or a swap when there is none).
+    fn after_commit(&mut self, before: &Complex, step: Option<Step>) {
+        let keys = |c: &Complex| -> Vec<(String, u32)> {
+            let mut v: Vec<(String, u32)> = Vec::new();
+            for (_, b) in c.all_ligands() {
+                match v.iter_mut().find(|(k, _)| *k == b.ligand.key) {
+                    Some(e) => e.1 += b.count,
+                    None => v.push((b.ligand.key.clone(), b.count)),
+                }
+            }
+            v
+        };
+        let (old, new) = (keys(before), keys(&self.complex));
+        let have =
+            |list: &[(String, u32)], k: &str| list.iter().find(|(x, _)| x == k).map_or(0, |e| e.1);
+        // the first ligand the change brought in (or added one more of)
+        if step.is_some() {
+            if let Some((k, _)) = new.iter().find(|(k, n)| *n > have(&old, k)) {
+                if let Some(i) = self
+                    .slots()
+                    .iter()
+                    .position(|s| self.complex.group(*s).is_some_and(|b| b.ligand.key == *k))
+                {
+                    self.row = i;
+                }
+            }
+        }
+        match &step {
+            Some(Step::Dissociation(_)) => {
+                for (k, n) in &old {
+                    if *n > have(&new, k) {
+                        self.departed.insert(0, k.clone());
+                    }
+                }
+            }
+            Some(Step::Association(_)) => {
+                for (k, n) in &new {
+                    if *n > have(&old, k) {
+                        if let Some(i) = self.departed.iter().position(|d| d == k) {
+                            self.departed.remove(i);
+                        }
+                    }
+                }
+            }
+            _ => {}
+        }
+        self.last_step = step;
+        let next = crate::chem::steps::suggest(
+            &self.complex,
+            self.selected_slot(),
+            self.last_step.as_ref(),
+            &self.departed,
+            self.cat.as_ref(),
+        );
+        match next {
+            Some(s) => self.pend_choices(s),
+            None => {
+                self.choices.clear();
+                self.set_pending(Pending::Swap);
+            }
+        }
     }
 
     /// Make `next` the working complex as a committed change: undo can step back, and the
@@ -617,49 +794,191 @@ impl App {
         }
     }
 
-    /// Reductive elimination or insertion of the selected ligand with a partner chosen the way
-    /// a chemist would: H first, then the other X groups.
-    fn pend_pair_step(&mut self, kind: PairStep) {
-        let Some(sel) = self.selected_slot().and_then(|s| self.complex.group(s)) else {
+    /// Ask for what a step needs (a substrate, a ligand, a reagent); `on_selected` steps act
+    /// on the selected ligand, which must be there.
+    fn ask(&mut self, what: Ask, on_selected: bool) {
+        let selected = self
+            .selected_slot()
+            .and_then(|s| self.complex.group(s))
+            .map(|b| b.ligand.key.clone());
+        if on_selected && selected.is_none() {
             self.notice("select a ligand of the working complex first", true);
             return;
-        };
-        let key = sel.ligand.key.clone();
-        let mut partners: Vec<&str> = self
-            .complex
-            .all_ligands()
-            .map(|(_, b)| b)
-            .filter(|b| {
-                let m = b.mode();
-                m.class.x == 1 && m.class.l == 0 && (b.ligand.key != key || b.count > 1)
-            })
-            .map(|b| b.ligand.key.as_str())
-            .collect();
-        partners.sort_by_key(|k| if *k == "H" { 0 } else { 1 });
-        let Some(partner) = partners.first().map(|p| p.to_string()) else {
-            self.notice(
-                "no X-type partner (H, alkyl, aryl, halide) on the metal",
-                true,
-            );
-            return;
-        };
-        let step = match kind {
-            PairStep::Elimination => Step::ReductiveElimination(key, partner),
-            PairStep::Insertion => Step::MigratoryInsertion {
-                inserting: key,
-                into: partner,
-                regio: None,
-            },
-        };
-        self.set_pending(Pending::Step(step));
+        }
+        self.asking_for = Some((what, selected));
+        self.start_line(LineKind::Ask(what));
+        self.refresh_hits();
     }
 
-    fn submit_substrate(&mut self) {
-        let text = self.formula_input.trim().to_string();
-        self.mode = Mode::Normal;
-        if !text.is_empty() {
-            self.set_pending(Pending::Step(Step::OxidativeAddition(text)));
+    /// The catalogue ligands or substrates that match what is typed so far.
+    fn refresh_hits(&mut self) {
+        self.prompt_hit = None;
+        self.prompt_hits.clear();
+        let Mode::Line(LineKind::Ask(what)) = self.mode else {
+            return;
+        };
+        let q = self.formula_input.trim().to_lowercase();
+        if what == Ask::Step {
+            self.prompt_hits = crate::chem::steps::STEP_WORDS
+                .iter()
+                .filter(|(w, _, _)| {
+                    q.is_empty() || w.starts_with(q.split(' ').next().unwrap_or(""))
+                })
+                .map(|(_, _, e)| e.to_string())
+                .take(8)
+                .collect();
+            return;
         }
+        if q.is_empty() {
+            return;
+        }
+        if what.is_ligand() {
+            self.prompt_hits = self
+                .cat
+                .search(&self.formula_input)
+                .into_iter()
+                .take(8)
+                .map(|h| h.ligand.key.clone())
+                .collect();
+            return;
+        }
+        let mut hits: Vec<(usize, String)> = self
+            .cat
+            .substrates()
+            .iter()
+            .filter_map(|d| {
+                std::iter::once(&d.key)
+                    .chain([&d.name, &d.formula])
+                    .chain(&d.aliases)
+                    .filter_map(|t| t.to_lowercase().find(&q))
+                    .min()
+                    .map(|at| (at, d.key.clone()))
+            })
+            .collect();
+        hits.sort_by(|a, b| {
+            a.0.cmp(&b.0)
+                .then(a.1.len().cmp(&b.1.len()))
+                .then(a.1.cmp(&b.1))
+        });
+        self.prompt_hits = hits.into_iter().take(8).map(|(_, k)| k).collect();
+    }
+
+    /// The answer to a step's question: the match picked with the arrows, else the text as
+    /// typed when it reads, else the best match.
+    fn answer(&self, what: Ask) -> String {
+        let typed = self.formula_input.trim().to_string();
+        if let Some(i) = self.prompt_hit {
+            if let Some(h) = self.prompt_hits.get(i) {
+                return h.clone();
+            }
+        }
+        let reads = match what {
+            Ask::Step => crate::chem::steps::Step::parse(&typed).is_ok(),
+            Ask::Ligand => self.cat.get(&typed).is_some(),
+            _ => crate::chem::reagent::read(&typed, self.cat.as_ref()).is_ok(),
+        };
+        if reads || typed.is_empty() {
+            return typed;
+        }
+        self.prompt_hits.first().cloned().unwrap_or(typed)
+    }
+
+    fn submit_answer(&mut self, what: Ask) {
+        let text = self.answer(what);
+        let on = self
+            .asking_for
+            .take()
+            .and_then(|(_, s)| s)
+            .unwrap_or_default();
+        self.mode = Mode::Normal;
+        self.prompt_hits.clear();
+        if text.is_empty() && what != Ask::Base {
+            return;
+        }
+        let step = match what {
+            Ask::Substrate => Step::OxidativeAddition(text),
+            Ask::Ligand => Step::Association(text),
+            Ask::Transmetalating => {
+                // onto the selected X group if one is selected, else the usual halide
+                let leaving = self
+                    .selected_slot()
+                    .and_then(|s| self.complex.group(s))
+                    .filter(|b| b.mode().class.x == 1)
+                    .map(|b| b.ligand.key.clone());
+                Step::Transmetalation {
+                    reagent: text,
+                    leaving,
+                }
+            }
+            Ask::Abstractor => Step::Abstraction {
+                group: on,
+                by: text,
+            },
+            Ask::Acid => Step::Protonolysis {
+                group: on,
+                acid: text,
+            },
+            Ask::Nucleophile => Step::NucleophilicAttack {
+                nucleophile: text,
+                target: on,
+            },
+            Ask::Electrophile => Step::ElectrophilicAttack {
+                electrophile: text,
+                target: on,
+            },
+            Ask::SigmaReagent => Step::SigmaBondMetathesis {
+                reagent: text,
+                group: on,
+            },
+            Ask::CHSubstrate => Step::ConcertedMetalationDeprotonation {
+                substrate: text,
+                base: on,
+            },
+            Ask::Base => Step::Deprotonation {
+                group: on,
+                base: (!text.is_empty()).then_some(text),
+            },
+            Ask::Step => match Step::parse(&text) {
+                Ok(s) => s,
+                Err(e) => {
+                    self.notice(&e.to_string(), true);
+                    return;
+                }
+            },
+        };
+        self.pend_choices(step);
+    }
+
+    /// Preview `seed` with the other ways it could go ready for `n`.
+    fn pend_choices(&mut self, seed: Step) {
+        let found = crate::chem::steps::choices(&self.complex, &seed, self.cat.as_ref());
+        let first = found.first().cloned();
+        self.set_pending(Pending::Step(first.unwrap_or(seed)));
+        self.choices = found;
+    }
+
+    /// A step on the selected ligand, with its choices.
+    fn pend_with_choices(&mut self, make: impl Fn(String) -> Step) {
+        match self.selected_slot().and_then(|s| self.complex.group(s)) {
+            Some(b) => {
+                let key = b.ligand.key.clone();
+                self.pend_choices(make(key));
+            }
+            None => self.notice("select a ligand of the working complex first", true),
+        }
+    }
+
+    /// Show the next way the step in the preview could go.
+    fn next_choice(&mut self) {
+        if self.choices.len() < 2 {
+            self.notice("this step has no other partner or product here", true);
+            return;
+        }
+        let next = (self.choice + 1) % self.choices.len();
+        let step = self.choices[next].clone();
+        self.pending = Pending::Step(step);
+        self.choice = next;
+        self.refresh_preview();
     }
 
     /// Run the screen again for the selected ligand under the current constraints.
@@ -800,8 +1119,28 @@ impl App {
         };
         let text = crate::session::export::markdown(s, &crate::session::export::Scope::Tree);
         let path = s.path.with_extension("md");
-        match std::fs::write(&path, text) {
-            Ok(()) => self.notice(&format!("session written to {}", path.display()), false),
+        // the cycle the working variant is on (or its path), as a figure beside the table
+        let figure = self
+            .variant
+            .map(|v| crate::session::figure::svg(s, &crate::session::figure::cycle_ids(s, v)));
+        let svg_path = s.path.with_extension("svg");
+        let written = std::fs::write(&path, text).and_then(|()| match &figure {
+            Some(f) => std::fs::write(&svg_path, f),
+            None => Ok(()),
+        });
+        match written {
+            Ok(()) => self.notice(
+                &format!(
+                    "session written to {}{}",
+                    path.display(),
+                    if figure.is_some() {
+                        format!(" and its cycle to {}", svg_path.display())
+                    } else {
+                        String::new()
+                    }
+                ),
+                false,
+            ),
             Err(e) => self.notice(&format!("cannot write {}: {e}", path.display()), true),
         }
     }

@@ -32,7 +32,7 @@ use crate::chem::Complex;
 
 /// The demo: an invented group's planning session.
 pub const DEMO_FORMULA: &str = "HRh(CO)(PPh3)3";
-pub const DEMO_TITLE: &str = "demo (invented): Lindqvist group, hydroformylation catalyst tuning";
+pub const DEMO_TITLE: &str = "demo (invented): Larkspur Row lab, hydroformylation catalyst tuning";
 
 /// The help overlay's lines as plain text (for tests and the docs).
 pub fn help_text(app: &App) -> Vec<String> {

@@ -24,13 +24,17 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, theme: &super::theme::Theme)
     let slots = app.slots();
     let needed = 2 + slots.len().max(1) + summary.len();
     let mut top: Vec<Line> = Vec::new();
-    if (inner.height as usize) > needed {
-        top.push(Line::styled(plain(app, &app.title), t.dim()));
-    }
+    // the current complex first; what the session started from below it, when there is room
     top.push(Line::styled(
         plain(app, &app.complex.formula(app.ascii)),
         t.title(),
     ));
+    if (inner.height as usize) > needed {
+        top.push(Line::styled(
+            plain(app, &format!("from {}", app.title)),
+            t.dim(),
+        ));
+    }
     top.push(Line::styled(
         format!(
             "  {:<11}{:<7}{:<6}{:>4}{:>6}",

@@ -28,6 +28,10 @@ pub fn title(app: &App) -> &'static str {
 }
 
 pub fn render(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
+    if let crate::tui::Mode::Line(super::app::LineKind::Ask(what)) = app.mode {
+        render_matches(f, app, area, t, what);
+        return;
+    }
     let b = block(app, title(app), false, t);
     let inner = b.inner(area);
     f.render_widget(b, area);
@@ -48,6 +52,48 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
     };
     let lines = plain_lines(app, lines);
     f.render_widget(Paragraph::new(lines).wrap(Wrap { trim: false }), inner);
+}
+
+/// While a step asks for a ligand or reagent: what matches the text typed so far.
+fn render_matches(f: &mut Frame, app: &App, area: Rect, t: &Theme, what: super::app::Ask) {
+    let b = block(app, "Matches", false, t);
+    let inner = b.inner(area);
+    f.render_widget(b, area);
+    let mut lines = vec![Line::styled(
+        "↑/↓ picks one; Enter takes the text as typed when it reads, else the first match",
+        t.dim(),
+    )];
+    if app.prompt_hits.is_empty() {
+        lines.push(Line::styled(
+            if app.formula_input.trim().is_empty() {
+                "type a name, a formula or SMILES"
+            } else {
+                "nothing in the catalogue matches; the text is read as it stands"
+            },
+            t.dim(),
+        ));
+    }
+    for (i, key) in app.prompt_hits.iter().enumerate() {
+        let selected = app.prompt_hit == Some(i);
+        let detail = if what.is_ligand() {
+            app.cat.get(key).map(|l| l.name.clone()).unwrap_or_default()
+        } else {
+            app.cat
+                .substrates()
+                .iter()
+                .find(|d| d.key == *key)
+                .map(|d| d.name.clone())
+                .unwrap_or_default()
+        };
+        lines.push(Line::styled(
+            format!("{} {key:<16} {detail}", super::ui::marker(app, selected)),
+            if selected { t.selected(true) } else { t.text() },
+        ));
+    }
+    f.render_widget(
+        Paragraph::new(plain_lines(app, lines)).wrap(Wrap { trim: true }),
+        inner,
+    );
 }
 
 /// "18" when nothing changes, "18 → 16" when it does.

@@ -32,29 +32,52 @@ pub fn render_tree(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
     let b = block(app, &title, true, t);
     let inner = b.inner(area);
     f.render_widget(b, area);
-    let tree = s.tree();
+    let rows = tree_rows(s, app.ascii);
     let room = inner.height as usize;
+    let width = inner.width as usize;
     let first = app.tree_row.saturating_sub(room.saturating_sub(1));
     let mut lines = Vec::new();
-    for (i, (depth, v)) in tree.iter().enumerate().skip(first).take(room) {
+    for (i, (prefix, v)) in rows.iter().enumerate().skip(first).take(room) {
         let selected = i == app.tree_row;
         let working = app.variant == Some(v.id);
-        let e = &v.counts.electron_count;
+        let c = &v.counts;
+        let os = match c.oxidation_state.as_f64() {
+            Some(x) if x > 0.0 => format!("+{}", c.oxidation_state),
+            _ => c.oxidation_state.to_string(),
+        };
         let mut text = format!(
-            "{} {:>3} {}{} -> {}  {} e",
+            "{} {:>3} {prefix}{}{} -> {}  {} e · {} · d{}",
             marker(app, selected),
             v.id,
-            "  ".repeat(*depth),
             v.action,
+            if v.made == crate::session::Made::Edit {
+                " (edit)"
+            } else {
+                ""
+            },
             v.formula,
-            e
+            c.electron_count,
+            os,
+            c.d_electrons,
         );
+        if let Some(from) = s.closes(v.id) {
+            text.push_str(&format!("  ↺ closes the cycle from {from}"));
+        }
         if let Some(name) = s.bookmark_of(v.id) {
             text.push_str(&format!("  [{name}]"));
         }
         if working {
             text.push_str("  <- working");
         }
+        let text = plain(app, &text);
+        // nothing is cut without saying so
+        let text = if text.chars().count() > width {
+            let mut cut: String = text.chars().take(width.saturating_sub(1)).collect();
+            cut.push(if app.ascii { '~' } else { '…' });
+            cut
+        } else {
+            text
+        };
         let style = if selected {
             t.selected(true)
         } else if working {
@@ -62,9 +85,71 @@ pub fn render_tree(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
         } else {
             t.text()
         };
-        lines.push(Line::styled(plain(app, &text), style));
+        lines.push(Line::styled(text, style));
     }
     f.render_widget(Paragraph::new(lines), inner);
+}
+
+/// The tree's rows with their branch lines: a run of single steps stays in one column, and
+/// only where a variant has several children do they branch, each sibling with `├─` or `└─`
+/// and the lines beside them with `│`.
+pub fn tree_rows(
+    s: &crate::session::Session,
+    ascii: bool,
+) -> Vec<(String, &crate::session::Variant)> {
+    let (tee, elbow, bar) = if ascii {
+        ("|- ", "`- ", "|  ")
+    } else {
+        ("├─ ", "└─ ", "│  ")
+    };
+    let mut children: std::collections::HashMap<u64, Vec<u64>> = std::collections::HashMap::new();
+    for v in &s.variants {
+        if let Some(p) = v.parent.filter(|p| s.get(*p).is_some()) {
+            children.entry(p).or_default().push(v.id);
+        }
+    }
+    let mut out = Vec::new();
+    // (variant, the indent of its column)
+    let mut stack: Vec<(u64, String, &'static str)> = s
+        .variants
+        .iter()
+        .filter(|v| v.parent.is_none_or(|p| s.get(p).is_none()))
+        .rev()
+        .map(|v| (v.id, String::new(), ""))
+        .collect();
+    let mut seen = std::collections::HashSet::new();
+    while let Some((id, indent, connector)) = stack.pop() {
+        if !seen.insert(id) {
+            continue;
+        }
+        let Some(v) = s.get(id) else { continue };
+        out.push((format!("{indent}{connector}"), v));
+        let kids = children.get(&id).map_or(&[][..], Vec::as_slice);
+        if kids.len() == 1 {
+            // a single step: same column
+            let keep = if connector.is_empty() {
+                indent.clone()
+            } else if connector == elbow {
+                format!("{indent}   ")
+            } else {
+                format!("{indent}{bar}")
+            };
+            stack.push((kids[0], keep, ""));
+        } else {
+            let base = if connector.is_empty() {
+                indent.clone()
+            } else if connector == elbow {
+                format!("{indent}   ")
+            } else {
+                format!("{indent}{bar}")
+            };
+            for (k, &kid) in kids.iter().enumerate().rev() {
+                let last = k + 1 == kids.len();
+                stack.push((kid, base.clone(), if last { elbow } else { tee }));
+            }
+        }
+    }
+    out
 }
 
 fn summary<'a>(label: String, formula: &str, r: Option<&Report>, t: &Theme) -> Vec<Line<'a>> {
@@ -249,4 +334,107 @@ pub fn render_screen(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
         lines.push(Line::styled(plain(app, &text), style));
     }
     f.render_widget(Paragraph::new(plain_lines(app, lines)), inner);
+}
+
+/// The current path as a cycle: each intermediate with its counts, each step with what
+/// entered and left, the lowest count and odd counts named, the net reaction at the end.
+pub fn render_cycle(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
+    let area = popup(area);
+    f.render_widget(Clear, area);
+    let (Some(s), Some(end)) = (&app.session, app.variant) else {
+        let b = block(app, "Cycle (? or Esc closes)", true, t);
+        f.render_widget(
+            Paragraph::new("this planner keeps no session, so it has no path to draw").block(b),
+            area,
+        );
+        return;
+    };
+    let ids = crate::session::figure::cycle_ids(s, end);
+    let closes = s.closes(end);
+    let title = match closes {
+        Some(from) => format!("Cycle #{from} -> #{end}, closed (j/k scroll, Esc closes)"),
+        None => format!("Path to #{end}, open (j/k scroll, Esc closes)"),
+    };
+    let b = block(app, &title, true, t);
+    let inner = b.inner(area);
+    f.render_widget(b, area);
+    let variants: Vec<&crate::session::Variant> = ids.iter().filter_map(|&i| s.get(i)).collect();
+    let lowest = variants
+        .iter()
+        .filter_map(|v| v.counts.electron_count.as_f64())
+        .fold(f64::INFINITY, f64::min);
+    let width = inner.width as usize;
+    let fit = |text: String| -> String {
+        if text.chars().count() > width {
+            let mut t: String = text.chars().take(width.saturating_sub(1)).collect();
+            t.push('…');
+            t
+        } else {
+            text
+        }
+    };
+    let mut lines: Vec<Line> = Vec::new();
+    for (k, v) in variants.iter().enumerate() {
+        if k > 0 {
+            let mut arrow = format!("   ↓ {}", v.action);
+            if v.made == crate::session::Made::Edit {
+                arrow.push_str(" (a free edit, not a step)");
+            }
+            for r in &v.enters {
+                arrow.push_str(&format!("  + {}", r.name));
+            }
+            for r in &v.leaves {
+                arrow.push_str(&format!("  − {}", r.name));
+            }
+            lines.push(Line::styled(fit(plain(app, &arrow)), t.dim()));
+        }
+        let c = &v.counts;
+        let e = c.electron_count.as_f64();
+        let mut marks = Vec::new();
+        if e == Some(lowest) && variants.len() > 1 {
+            marks.push("lowest count");
+        }
+        if e.is_some_and(|e| e.fract() == 0.0 && (e as i64) % 2 != 0) {
+            marks.push("odd electron");
+        }
+        let os = match c.oxidation_state.as_f64() {
+            Some(x) if x > 0.0 => format!("+{}", c.oxidation_state),
+            _ => c.oxidation_state.to_string(),
+        };
+        let text = format!(
+            "#{:<3} {}  {} e · OS {} · d{}{}",
+            v.id,
+            v.formula,
+            c.electron_count,
+            os,
+            c.d_electrons,
+            if marks.is_empty() {
+                String::new()
+            } else {
+                format!("  [{}]", marks.join(", "))
+            }
+        );
+        let style = if marks.is_empty() { t.text() } else { t.warn() };
+        lines.push(Line::styled(fit(plain(app, &text)), style));
+    }
+    lines.push(Line::raw(""));
+    if let (Some(first), Some(last)) = (ids.first(), ids.last()) {
+        let net = s.net(*first, *last);
+        let head = if closes.is_some() {
+            "net"
+        } else {
+            "net so far"
+        };
+        lines.push(Line::styled(
+            plain(app, &format!("{head}: {}", net.text())),
+            t.title(),
+        ));
+    }
+    let scroll = app.cycle_scroll.min((lines.len() as u16).saturating_sub(1));
+    f.render_widget(
+        Paragraph::new(plain_lines(app, lines))
+            .wrap(Wrap { trim: false })
+            .scroll((scroll, 0)),
+        inner,
+    );
 }

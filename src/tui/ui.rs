@@ -119,6 +119,7 @@ pub fn render(f: &mut Frame, app: &App, t: &Theme) {
         Mode::Tree => super::pane_session::render_tree(f, app, area, t),
         Mode::Compare => super::pane_session::render_compare(f, app, area, t),
         Mode::Screen => super::pane_session::render_screen(f, app, area, t),
+        Mode::Cycle => super::pane_session::render_cycle(f, app, area, t),
         Mode::Line(super::app::LineKind::Bookmark) => {
             super::pane_session::render_tree(f, app, area, t)
         }

@@ -22,6 +22,7 @@
 //! Every step checks that the atoms and the charge of the start plus what enters equal those
 //! of the product plus what leaves before it reports; an unbalanced step is a bug.
 
+mod advice;
 mod attack;
 mod ctx;
 mod cyclo;
@@ -36,6 +37,7 @@ use super::count::{count, Report, Saturation};
 use super::formula::LigandLookup;
 use super::frac::Frac;
 use super::species::Equation;
+pub use advice::{choices, suggest};
 use ctx::Ctx;
 
 /// Which way an alkene inserts: `1,2` puts the metal on the less substituted carbon, `2,1` on

@@ -3,59 +3,10 @@
 
 mod common;
 
-use std::sync::Arc;
-
-use nonet::catalogue::Catalogue;
-use nonet::chem::parse;
 use nonet::session::Session;
-use nonet::tui::{App, Mode, Pending};
-use ratatui::crossterm::event::{KeyCode, KeyEvent};
+use nonet::tui::{Mode, Pending};
 
-fn press(app: &mut App, keys: &str) {
-    let mut rest = keys;
-    while !rest.is_empty() {
-        let (code, used) = if let Some(r) = rest.strip_prefix("<enter>") {
-            (KeyCode::Enter, rest.len() - r.len())
-        } else if let Some(r) = rest.strip_prefix("<esc>") {
-            (KeyCode::Esc, rest.len() - r.len())
-        } else {
-            let c = rest.chars().next().expect("char");
-            (KeyCode::Char(c), c.len_utf8())
-        };
-        if let Some(a) = app.handle_key(KeyEvent::from(code)) {
-            app.apply(a);
-        }
-        rest = &rest[used..];
-    }
-}
-
-fn planner(formula: &str, tag: &str) -> (App, std::path::PathBuf) {
-    let dir = std::env::temp_dir().join(format!("nonet-tui-{tag}-{}", std::process::id()));
-    let _ = std::fs::remove_dir_all(&dir);
-    let cat = Arc::new(Catalogue::bundled());
-    let c = parse(formula, cat.as_ref()).expect("formula");
-    let mut s = Session::open(&dir, "t").expect("session");
-    let root = s
-        .commit(
-            None,
-            "start",
-            &c,
-            &nonet::chem::count(&c),
-            nonet::session::Change::Start,
-        )
-        .expect("root");
-    let mut app = App::new(cat, c, "test".into(), false);
-    app.session = Some(s);
-    app.variant = Some(root);
-    (app, dir)
-}
-
-fn row_of(app: &App, key: &str) -> usize {
-    app.slots()
-        .iter()
-        .position(|s| app.complex.group(*s).is_some_and(|b| b.ligand.key == key))
-        .unwrap_or_else(|| panic!("no {key} row"))
-}
+use common::keys::{planner, press, row_of};
 
 #[test]
 fn commits_are_recorded_and_going_back_branches() {

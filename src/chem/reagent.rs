@@ -820,3 +820,65 @@ pub fn hydrogen_group() -> Molecule {
     m.add_bond(h, s, 1);
     m
 }
+
+/// What a step asks a reagent to do.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Role {
+    /// Add across the metal (has a bond to split).
+    Adds,
+    /// Bring an organic group on a main-group metal (B, Zn, Sn, Mg, Si, Cu, Li, Al).
+    Transmetalates,
+    /// Take an anionic ligand: a cation or a Lewis acid.
+    Abstracts,
+    /// Give a proton or an alkyl.
+    Electrophile,
+    /// Give an anion or attack through an O-H, N-H, S-H.
+    Nucleophile,
+    /// Take a proton.
+    Base,
+    /// Offer a C-H bond.
+    CH,
+}
+
+/// Whether a substrate fits a role (used to rank what a step's question offers).
+pub fn suits(m: &Molecule, role: Role) -> bool {
+    let parts = m.components();
+    let has = |z: &[u8]| m.atoms.iter().any(|a| z.contains(&a.z));
+    match role {
+        Role::Adds => split_bond(m).is_some(),
+        Role::Transmetalates => {
+            has(&[3, 5, 12, 13, 14, 29, 30, 50])
+                && m.bonds.iter().any(|b| {
+                    let (x, y) = (m.atoms[b.a].z, m.atoms[b.b].z);
+                    (x == periodic::C) != (y == periodic::C)
+                        && [x, y]
+                            .iter()
+                            .any(|z| [3, 5, 12, 13, 14, 29, 30, 50].contains(z))
+                })
+        }
+        Role::Abstracts => {
+            parts.iter().any(|p| p.charge() > 0)
+                || (0..m.atoms.len()).any(|i| {
+                    let a = m.atoms[i];
+                    matches!(a.z, 5 | 13) && a.charge == 0 && m.bond_valence(i) + a.h == 3
+                })
+        }
+        Role::Electrophile => electrophile(m).is_some(),
+        Role::Nucleophile => {
+            parts.iter().any(|p| p.charge() < 0)
+                || m.atoms
+                    .iter()
+                    .any(|a| matches!(a.z, periodic::O | periodic::N | periodic::S) && a.h > 0)
+        }
+        Role::Base => {
+            parts.iter().any(|p| p.charge() < 0)
+                || m.atoms
+                    .iter()
+                    .any(|a| a.z == periodic::N && a.charge == 0 && a.h <= 1)
+        }
+        Role::CH => m
+            .atoms
+            .iter()
+            .any(|a| a.z == periodic::C && a.h > 0 && a.aromatic),
+    }
+}

@@ -193,6 +193,8 @@ pub struct App {
     departed: Vec<String>,
     /// The step that made the working complex, if it was one.
     last_step: Option<Step>,
+    /// Ligand keys of the complex the planner started from: only these are expected back.
+    start_keys: Vec<String>,
     /// Scroll position of the cycle view.
     pub cycle_scroll: u16,
     pub notice: Option<Notice>,
@@ -236,6 +238,7 @@ impl App {
             choice: 0,
             departed: Vec::new(),
             last_step: None,
+            start_keys: Vec::new(),
             cycle_scroll: 0,
             notice: None,
             help_scroll: 0,
@@ -243,6 +246,11 @@ impl App {
             quit: false,
             repaint: false,
         };
+        app.start_keys = app
+            .complex
+            .all_ligands()
+            .map(|(_, b)| b.ligand.key.clone())
+            .collect();
         app.refilter(false);
         app.refresh_preview();
         app
@@ -682,8 +690,9 @@ impl App {
         }
         match &step {
             Some(Step::Dissociation(_)) => {
+                // a catalyst's own ligand that left is expected back; a product is not
                 for (k, n) in &old {
-                    if *n > have(&new, k) {
+                    if *n > have(&new, k) && self.start_keys.contains(k) {
                         self.departed.insert(0, k.clone());
                     }
                 }
@@ -842,7 +851,18 @@ impl App {
                 .collect();
             return;
         }
-        let mut hits: Vec<(usize, String)> = self
+        use crate::chem::reagent::{suits, Role};
+        let role = match what {
+            Ask::Substrate | Ask::SigmaReagent | Ask::Ligand | Ask::Step => Role::Adds,
+            Ask::Transmetalating => Role::Transmetalates,
+            Ask::Abstractor => Role::Abstracts,
+            Ask::Acid | Ask::Electrophile => Role::Electrophile,
+            Ask::Nucleophile => Role::Nucleophile,
+            Ask::Base => Role::Base,
+            Ask::CHSubstrate => Role::CH,
+        };
+        // reagents that fit the question first, then the earliest match, then the shortest
+        let mut hits: Vec<(bool, usize, String)> = self
             .cat
             .substrates()
             .iter()
@@ -852,14 +872,16 @@ impl App {
                     .chain(&d.aliases)
                     .filter_map(|t| t.to_lowercase().find(&q))
                     .min()
-                    .map(|at| (at, d.key.clone()))
+                    .map(|at| (!suits(&d.structure, role), at, d.key.clone()))
             })
             .collect();
         hits.sort_by(|a, b| {
-            a.0.cmp(&b.0)
-                .then(a.1.len().cmp(&b.1.len()))
-                .then(a.1.cmp(&b.1))
+            (a.0, a.1)
+                .cmp(&(b.0, b.1))
+                .then(a.2.len().cmp(&b.2.len()))
+                .then(a.2.cmp(&b.2))
         });
+        let hits: Vec<(usize, String)> = hits.into_iter().map(|(_, at, k)| (at, k)).collect();
         self.prompt_hits = hits.into_iter().take(8).map(|(_, k)| k).collect();
     }
 

@@ -2,6 +2,8 @@
 
 #![allow(dead_code)]
 
+pub mod keys;
+
 use nonet::catalogue::Catalogue;
 use nonet::chem::element::{Block, ELEMENTS};
 use nonet::chem::{BoundLigand, Complex, MetalSite};

@@ -258,6 +258,19 @@ pub fn suggest(
             return Some(step);
         }
     }
+    // an anionic complex gives up a halide (after a base took the hydride, as in the Heck
+    // cycle's last step)
+    if c.charge < 0 {
+        for s in c.slots() {
+            if let Some(b) = c.group(s) {
+                if b.ligand.family == "halide" {
+                    if let Some(st) = ok(Step::Dissociation(b.ligand.key.clone())) {
+                        return Some(st);
+                    }
+                }
+            }
+        }
+    }
     // a ligand that left earlier comes back to a metal short of 16 e
     if count(c).is_some_and(|n| n < Frac::int(16)) {
         for key in departed {

@@ -134,6 +134,19 @@ impl<'a> Ctx<'a> {
         reagent::read(token, self.lookup).map_err(StepError::Usage)
     }
 
+    /// A free species named as the catalogue names it: a ligand made from its structure that
+    /// is also a known substrate (an amine, an alkene) takes the substrate's key and hazards.
+    pub fn known(&self, s: Species) -> Species {
+        if s.hazards.is_empty() || !s.name.chars().any(|c| c.is_ascii_lowercase()) {
+            if let Some(def) = self.lookup.substrate_like(&s.structure) {
+                let mut named = Species::of(def);
+                named.structure = s.structure;
+                return named;
+            }
+        }
+        s
+    }
+
     /// A ligand for a structure a step made: the catalogue's, else one made from it.
     pub fn made(&self, m: &Molecule) -> Arc<LigandDef> {
         ligand_for(m, self.lookup)

@@ -294,6 +294,8 @@ pub enum Beta {
 struct Option_ {
     alkene: Molecule,
     moving: Molecule,
+    /// The new double bond is to O or N (a ketone, aldehyde or imine): it leaves the metal.
+    carbonyl: bool,
 }
 
 /// β-elimination: a hydrogen (or an alkyl, or a heteroatom group) on the β atom moves to the
@@ -338,6 +340,7 @@ pub fn beta_elimination(
                 options.push(Option_ {
                     alkene: g,
                     moving: hydride(),
+                    carbonyl: m.atoms[alpha].z != periodic::C || m.atoms[beta].z != periodic::C,
                 });
             }
             Beta::Alkyl | Beta::Heteroatom => {
@@ -374,6 +377,8 @@ pub fn beta_elimination(
                     options.push(Option_ {
                         alkene: rest,
                         moving,
+                        carbonyl: m.atoms[alpha].z != periodic::C
+                            || m.atoms[beta].z != periodic::C,
                     });
                 }
             }
@@ -440,14 +445,18 @@ pub fn beta_elimination(
         }
         None => {
             // the most substituted alkene (the thermodynamic one) unless told
+            // a C=O or C=N before any alkene (the aldehyde of the Wacker step), then the most
+            // substituted alkene
             let score = |o: &Option_| {
                 let g = &o.alkene;
-                g.bonds
+                let most = g
+                    .bonds
                     .iter()
                     .filter(|b| b.order == 2)
                     .map(|b| degree(g, b.a) + degree(g, b.b))
                     .max()
-                    .unwrap_or(0)
+                    .unwrap_or(0);
+                (o.carbonyl, most)
             };
             let best = (0..distinct.len())
                 .max_by_key(|&i| (score(&distinct[i]), std::cmp::Reverse(i)))
@@ -474,7 +483,7 @@ pub fn beta_elimination(
     let chosen = distinct.swap_remove(pick);
     let chosen_made = made[pick].clone();
     let moving = cx.made(&chosen.moving);
-    let carbonyl = !matches!(m.atoms[alpha].z, periodic::C);
+    let carbonyl = chosen.carbonyl;
     let once = swap(cx.c, slot, &moving, x_mode(&moving))?;
     if carbonyl {
         // a ketone, aldehyde or imine from an alkoxo or amido leaves the metal

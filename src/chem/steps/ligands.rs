@@ -14,7 +14,7 @@ use crate::chem::species::{ion_of, Species};
 pub fn dissociation(cx: &mut Ctx, token: &str) -> Result<Complex, StepError> {
     let slot = cx.slot(token)?;
     let b = cx.group(slot)?;
-    let gone = released(b, false)?;
+    let gone = cx.known(released(b, false)?);
     if gone.charge() != 0 {
         cx.note(format!(
             "{} leaves as {} (heterolysis): the metal keeps its oxidation state; `homolysis {}` \
@@ -34,7 +34,7 @@ pub fn association(cx: &mut Ctx, token: &str) -> Result<Complex, StepError> {
     let l = cx.ligand(token)?;
     cx.needs_open_site("association")?;
     let mode = mode_named(token, &l);
-    let comes = entering(&l, mode)?;
+    let comes = cx.known(entering(&l, mode)?);
     let q = comes.charge();
     cx.enters(comes);
     recharge(&add(cx.c, &l, mode)?, q)
@@ -55,8 +55,8 @@ pub fn substitution(cx: &mut Ctx, leaving: &str, entering_: &str) -> Result<Comp
     let b = cx.group(slot)?;
     let l = cx.ligand(entering_)?;
     let mode = mode_named(entering_, &l);
-    let gone = released(b, false)?;
-    let comes = entering(&l, mode)?;
+    let gone = cx.known(released(b, false)?);
+    let comes = cx.known(entering(&l, mode)?);
     let delta = comes.charge() - gone.charge();
     cx.leaves(gone);
     cx.enters(comes);

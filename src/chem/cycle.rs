@@ -43,6 +43,7 @@ pub fn net<'a>(equations: impl IntoIterator<Item = &'a Equation>) -> Net {
             post(&t.species, t.count as i64);
         }
     }
+    pair_ions(&mut ledger);
     let mut out = Net::default();
     for (s, n) in ledger {
         let term = |count: i64| Term {
@@ -56,6 +57,71 @@ pub fn net<'a>(equations: impl IntoIterator<Item = &'a Equation>) -> Net {
         }
     }
     out
+}
+
+/// Ions on the same side of the net are written as the acid or salt they make (H+ + Cl- as
+/// HCl, Na+ + Br- as NaBr), the way a textbook writes a net reaction (Wacker: "... + 2 HCl";
+/// Buchwald-Hartwig: "... + tBuOH + NaBr").
+fn pair_ions(ledger: &mut Vec<(Species, i64)>) {
+    let is_proton = |s: &Species| {
+        s.electrons == 0
+            && s.structure.atoms.len() == 1
+            && s.structure.atoms[0].z == 1
+            && s.structure.atoms[0].charge == 1
+    };
+    // the one charged atom of a singly charged ion
+    let ion = |s: &Species, q: i32| {
+        let charged: Vec<usize> = (0..s.structure.atoms.len())
+            .filter(|&i| s.structure.atoms[i].charge != 0)
+            .collect();
+        (s.electrons == 0 && s.charge() == q && charged.len() == 1).then(|| charged[0])
+    };
+    // protons first (they bond), then other cations (they pair)
+    let mut cations: Vec<usize> = (0..ledger.len())
+        .filter(|&i| ion(&ledger[i].0, 1).is_some())
+        .collect();
+    cations.sort_by_key(|&i| !is_proton(&ledger[i].0));
+    for p in cations {
+        let proton = is_proton(&ledger[p].0);
+        for k in 0..ledger.len() {
+            let (n_p, n_a) = (ledger[p].1, ledger[k].1);
+            if n_p == 0 || n_p.signum() != n_a.signum() {
+                continue;
+            }
+            let Some(at) = ion(&ledger[k].0, -1) else {
+                continue;
+            };
+            let pairs = n_p.abs().min(n_a.abs()) * n_p.signum();
+            let base = ledger[k].0.name.trim_end_matches('-');
+            let made = if proton {
+                let mut acid = ledger[k].0.structure.clone();
+                acid.atoms[at].charge += 1;
+                acid.atoms[at].h = acid.atoms[at].h.saturating_add(1);
+                let name = if base == "OH" {
+                    "H2O".to_string()
+                } else {
+                    format!("H{base}")
+                };
+                Species::new(name, acid)
+            } else {
+                let mut salt = ledger[p].0.structure.clone();
+                salt.merge(&ledger[k].0.structure);
+                let cation = ledger[p].0.name.trim_end_matches('+');
+                let name = if ledger[p].0.structure.atoms.len() > 1 {
+                    format!("[{cation}]{base}")
+                } else {
+                    format!("{cation}{base}")
+                };
+                Species::new(name, salt)
+            };
+            ledger[p].1 -= pairs;
+            ledger[k].1 -= pairs;
+            match ledger.iter_mut().find(|e| e.0.same(&made)) {
+                Some(e) => e.1 += pairs,
+                None => ledger.push((made, pairs)),
+            }
+        }
+    }
 }
 
 impl Net {

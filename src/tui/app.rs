@@ -405,6 +405,7 @@ impl App {
             Action::StepCycloaddition => self.pend_with_choices(|k| Step::Cycloaddition {
                 unsaturated: String::new(),
                 ligand: k,
+                regio: None,
             }),
             Action::StepCoupling => {
                 self.pend_with_choices(|k| Step::OxidativeCoupling(k, String::new()))

@@ -98,8 +98,16 @@ pub fn choices(c: &Complex, seed: &Step, lookup: &dyn LigandLookup) -> Vec<Step>
                             _ => Step::Cycloaddition {
                                 unsaturated: b.ligand.key.clone(),
                                 ligand: a.clone(),
+                                regio: None,
                             },
                         });
+                        if matches!(seed, Step::Cycloaddition { .. }) {
+                            out.push(Step::Cycloaddition {
+                                unsaturated: b.ligand.key.clone(),
+                                ligand: a.clone(),
+                                regio: Some(Regio::OneTwo),
+                            });
+                        }
                     }
                 }
             }

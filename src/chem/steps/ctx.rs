@@ -118,6 +118,30 @@ impl<'a> Ctx<'a> {
         })
     }
 
+    /// A salt named as a ligand source (KOAc, NaCl, AgOTf): its anion binds, its cation
+    /// leaves. Gives the salt, the anion's ligand and the cations, or None for anything else.
+    pub fn salt(&self, token: &str) -> Option<(Species, Arc<LigandDef>, Vec<Molecule>)> {
+        if self.lookup.exact(token).is_some() {
+            return None;
+        }
+        let def = self.lookup.substrate(token)?;
+        let parts = def.structure.components();
+        let anions: Vec<&Molecule> = parts.iter().filter(|p| p.charge() == -1).collect();
+        let [anion] = anions[..] else {
+            return None;
+        };
+        let cations: Vec<Molecule> = parts.iter().filter(|p| p.charge() > 0).cloned().collect();
+        if cations.is_empty() || parts.len() != cations.len() + 1 {
+            return None;
+        }
+        let at = (0..anion.atoms.len()).find(|&i| anion.atoms[i].charge < 0)?;
+        let mut g = anion.clone();
+        g.atoms[at].charge = 0;
+        let star = g.add_atom(crate::chem::molecule::Atom::star());
+        g.add_bond(at, star, 1);
+        Some((Species::of(def), ligand_for(&g, self.lookup), cations))
+    }
+
     /// The ligand group a step names on the complex: by key, by a catalogue name for it, or
     /// by its structure written another way.
     pub fn slot(&self, token: &str) -> Result<Slot, StepError> {

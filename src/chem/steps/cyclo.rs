@@ -5,7 +5,7 @@
 
 use super::ctx::{add, remove, slot_in, structure, Ctx};
 use super::insertion::{unsaturation, Unsat};
-use super::{refuse, StepError};
+use super::{refuse, Regio, StepError};
 use crate::chem::complex::Complex;
 use crate::chem::molecule::{Atom, Molecule, AROMATIC};
 use crate::chem::periodic;
@@ -37,9 +37,15 @@ fn lower(m: &mut Molecule, a: usize, b: usize) {
 }
 
 /// [2+2] of an alkene or alkyne (bound, or from outside) with an alkylidene or imido: the
-/// metallacyclobutane (or azametallacycle). The alkene's more substituted carbon bonds to the
-/// metal (the productive orientation of cross-metathesis).
-pub fn cycloaddition(cx: &mut Ctx, unsat: &str, ylidene: &str) -> Result<Complex, StepError> {
+/// metallacyclobutane (or azametallacycle). Unless told 1,2, the alkene's more substituted
+/// carbon bonds to the metal (M=CH2 + RCH=CH2 on to M=CHR + C2H4); 1,2 bonds it next to the
+/// ylidene's carbon (M=CHR + RCH=CH2 on to RCH=CHR + M=CH2, the other half of self-metathesis).
+pub fn cycloaddition(
+    cx: &mut Ctx,
+    unsat: &str,
+    ylidene: &str,
+    regio: Option<Regio>,
+) -> Result<Complex, StepError> {
     let sy = cx.slot(ylidene)?;
     let by = cx.group(sy)?;
     let my = structure(by)?.clone();
@@ -72,11 +78,15 @@ pub fn cycloaddition(cx: &mut Ctx, unsat: &str, ylidene: &str) -> Result<Complex
     let Some((a, b)) = pi_bond(&ma) else {
         return refuse(format!("{unsat} has no C=C or C≡C for a [2+2]"));
     };
-    // more substituted carbon to the metal
-    let (to_c0, to_m) = if degree(&ma, a) <= degree(&ma, b) {
+    // more substituted carbon to the metal, unless 1,2
+    let (less, more) = if degree(&ma, a) <= degree(&ma, b) {
         (a, b)
     } else {
         (b, a)
+    };
+    let (to_c0, to_m) = match regio {
+        Some(Regio::OneTwo) => (more, less),
+        _ => (less, more),
     };
     let mut g = my.clone();
     for bd in g.bonds.iter_mut() {
@@ -165,8 +175,14 @@ pub fn cycloreversion(cx: &mut Ctx, alkene: &str) -> Result<Complex, StepError> 
     let (ylidene, ene) = options[pick].clone();
     let yl = cx.made(&ylidene);
     let mode = cx.carbene_mode(&yl);
-    let name = names[pick].clone();
-    cx.leaves(Species::new(name, ene));
+    // the alkene as the chemist wrote it (PhCHCHPh), or as the catalogue knows it
+    let name = if names[pick].starts_with('{') {
+        alkene.to_string()
+    } else {
+        names[pick].clone()
+    };
+    let leaving = cx.known(Species::new(name, ene));
+    cx.leaves(leaving);
     let without = remove(cx.c, slot)?;
     add(&without, &yl, mode)
 }

@@ -377,8 +377,7 @@ pub fn beta_elimination(
                     options.push(Option_ {
                         alkene: rest,
                         moving,
-                        carbonyl: m.atoms[alpha].z != periodic::C
-                            || m.atoms[beta].z != periodic::C,
+                        carbonyl: m.atoms[alpha].z != periodic::C || m.atoms[beta].z != periodic::C,
                     });
                 }
             }

@@ -31,6 +31,11 @@ pub fn dissociation(cx: &mut Ctx, token: &str) -> Result<Complex, StepError> {
 
 /// A ligand binds at an open site: L as itself, an anion lowering the charge.
 pub fn association(cx: &mut Ctx, token: &str) -> Result<Complex, StepError> {
+    if let Some((salt, l, cations)) = cx.salt(token) {
+        cx.needs_open_site("association")?;
+        let q = from_salt(cx, salt, cations);
+        return recharge(&add(cx.c, &l, 0)?, q);
+    }
     let l = cx.ligand(token)?;
     cx.needs_open_site("association")?;
     let mode = mode_named(token, &l);
@@ -53,6 +58,13 @@ fn mode_named(token: &str, l: &crate::chem::ligand::LigandDef) -> usize {
 pub fn substitution(cx: &mut Ctx, leaving: &str, entering_: &str) -> Result<Complex, StepError> {
     let slot = cx.slot(leaving)?;
     let b = cx.group(slot)?;
+    if let Some((salt, l, cations)) = cx.salt(entering_) {
+        let gone = cx.known(released(b, false)?);
+        let delta = -1 - gone.charge();
+        cx.leaves(gone);
+        from_salt(cx, salt, cations);
+        return recharge(&swap(cx.c, slot, &l, 0)?, delta);
+    }
     let l = cx.ligand(entering_)?;
     let mode = mode_named(entering_, &l);
     let gone = cx.known(released(b, false)?);
@@ -61,6 +73,22 @@ pub fn substitution(cx: &mut Ctx, leaving: &str, entering_: &str) -> Result<Comp
     cx.leaves(gone);
     cx.enters(comes);
     recharge(&swap(cx.c, slot, &l, mode)?, delta)
+}
+
+/// A salt enters and its cations leave (K+ of KOAc): the anion is what binds. The charge
+/// the anion brings.
+fn from_salt(cx: &mut Ctx, salt: Species, cations: Vec<Molecule>) -> i32 {
+    cx.note(format!(
+        "{} gives its anion to the metal; its cation stays in solution",
+        salt.name
+    ));
+    cx.enters(salt);
+    for c in cations {
+        let name = name_species(&c, None, cx.lookup);
+        let s = cx.known(Species::new(name, c));
+        cx.leaves(s);
+    }
+    -1
 }
 
 /// An X ligand leaves as a radical: the metal is reduced by one.

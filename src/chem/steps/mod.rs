@@ -115,6 +115,9 @@ pub enum Step {
     Cycloaddition {
         unsaturated: String,
         ligand: String,
+        /// 2,1 (the default) bonds the alkene's more substituted carbon to the metal; 1,2
+        /// bonds it to the ylidene carbon.
+        regio: Option<Regio>,
     },
     Cycloreversion(String),
     OxidativeCoupling(String, String),
@@ -127,8 +130,14 @@ pub enum Step {
         ligand: String,
         hapticity: u8,
     },
-    Oxidation,
-    Reduction,
+    /// One electron leaves, to the named oxidant if any (CuCl2, AgBF4, Cu2+).
+    Oxidation {
+        by: Option<String>,
+    },
+    /// One electron comes in, from the named reductant if any (Na, K).
+    Reduction {
+        by: Option<String>,
+    },
     Protonation {
         acid: Option<String>,
     },
@@ -197,7 +206,7 @@ pub const STEP_WORDS: &[(&str, &str, &str)] = &[
     ("protonolysis", "GROUP ACID", "protonolysis Me HCl"),
     (
         "cycloaddition",
-        "UNSATURATED LIGAND",
+        "UNSATURATED LIGAND [2,1|1,2]",
         "cycloaddition C2H4 CHPh",
     ),
     ("cycloreversion", "ALKENE", "cycloreversion CH2CHPh"),
@@ -217,8 +226,8 @@ pub const STEP_WORDS: &[(&str, &str, &str)] = &[
         "concerted-metalation-deprotonation PhH OAc",
     ),
     ("ring-slip", "LIGAND HAPTICITY", "ring-slip Cp 3"),
-    ("oxidation", "", "oxidation"),
-    ("reduction", "", "reduction"),
+    ("oxidation", "[OXIDANT]", "oxidation CuCl2"),
+    ("reduction", "[REDUCTANT]", "reduction Na"),
     ("protonation", "[ACID]", "protonation HBF4"),
     (
         "deprotonation",
@@ -339,17 +348,7 @@ impl Step {
             }
             "migratory-insertion" => {
                 want(2, 3)?;
-                let regio = match args.get(2).copied() {
-                    None => None,
-                    Some("1,2") | Some("12") => Some(Regio::OneTwo),
-                    Some("2,1") | Some("21") => Some(Regio::TwoOne),
-                    Some(other) => {
-                        return Err(StepError::Usage(format!(
-                            "'{other}' is not a regiochemistry: write 1,2 (metal on the less \
-                             substituted carbon) or 2,1"
-                        )))
-                    }
-                };
+                let regio = regio(args.get(2).copied())?;
                 Step::MigratoryInsertion {
                     inserting: a(0),
                     into: a(1),
@@ -414,10 +413,11 @@ impl Step {
                 }
             }
             "cycloaddition" => {
-                want(2, 2)?;
+                want(2, 3)?;
                 Step::Cycloaddition {
                     unsaturated: a(0),
                     ligand: a(1),
+                    regio: regio(args.get(2).copied())?,
                 }
             }
             "cycloreversion" => {
@@ -457,12 +457,12 @@ impl Step {
                 }
             }
             "oxidation" => {
-                want(0, 0)?;
-                Step::Oxidation
+                want(0, 1)?;
+                Step::Oxidation { by: opt(0) }
             }
             "reduction" => {
-                want(0, 0)?;
-                Step::Reduction
+                want(0, 1)?;
+                Step::Reduction { by: opt(0) }
             }
             "protonation" => {
                 want(0, 1)?;
@@ -511,8 +511,8 @@ impl Step {
             Step::ReductiveDecoupling(_) => "reductive-decoupling",
             Step::ConcertedMetalationDeprotonation { .. } => "concerted-metalation-deprotonation",
             Step::RingSlip { .. } => "ring-slip",
-            Step::Oxidation => "oxidation",
-            Step::Reduction => "reduction",
+            Step::Oxidation { .. } => "oxidation",
+            Step::Reduction { .. } => "reduction",
             Step::Protonation { .. } => "protonation",
             Step::Deprotonation { .. } => "deprotonation",
         }
@@ -532,6 +532,20 @@ impl Step {
 /// Text pasted from papers brought to what the step words use: sub- and superscript digits
 /// and signs, the hyphens and dashes U+2010-U+2015 and the minus sign, no-break and
 /// zero-width spaces ("η²-C₂H₄", "Ph–Br", "oxidative‑addition").
+/// A regiochemistry as typed: 1,2 puts the metal on the less substituted carbon, 2,1 on the
+/// more substituted one.
+fn regio(arg: Option<&str>) -> Result<Option<Regio>, StepError> {
+    match arg {
+        None => Ok(None),
+        Some("1,2") | Some("12") => Ok(Some(Regio::OneTwo)),
+        Some("2,1") | Some("21") => Ok(Some(Regio::TwoOne)),
+        Some(other) => Err(StepError::Usage(format!(
+            "'{other}' is not a regiochemistry: write 1,2 (metal on the less substituted carbon) \
+             or 2,1 (metal on the more substituted carbon)"
+        ))),
+    }
+}
+
 fn plain_text(text: &str) -> String {
     const SUB: &str = "₀₁₂₃₄₅₆₇₈₉";
     const SUP: &str = "⁰¹²³⁴⁵⁶⁷⁸⁹";
@@ -609,12 +623,22 @@ impl fmt::Display for Step {
             Step::Cycloaddition {
                 unsaturated,
                 ligand,
-            } => write!(f, " {unsaturated} {ligand}"),
+                regio,
+            } => {
+                write!(f, " {unsaturated} {ligand}")?;
+                match regio {
+                    Some(r) => write!(f, " {r}"),
+                    None => Ok(()),
+                }
+            }
             Step::ConcertedMetalationDeprotonation { substrate, base } => {
                 write!(f, " {substrate} {base}")
             }
             Step::RingSlip { ligand, hapticity } => write!(f, " {ligand} {hapticity}"),
-            Step::Oxidation | Step::Reduction => Ok(()),
+            Step::Oxidation { by } | Step::Reduction { by } => match by {
+                Some(b) => write!(f, " {b}"),
+                None => Ok(()),
+            },
         }
     }
 }
@@ -677,7 +701,7 @@ pub fn take(
     lookup: &dyn LigandLookup,
 ) -> Result<Outcome, StepError> {
     let before = count(complex);
-    let charge_only = matches!(step, Step::Oxidation | Step::Reduction);
+    let charge_only = matches!(step, Step::Oxidation { .. } | Step::Reduction { .. });
     if complex.metal_count() != 1 && !charge_only {
         return refuse(
             "steps at a metal need a mononuclear complex; oxidation and reduction work on any",
@@ -695,8 +719,8 @@ pub fn take(
         Step::RingSlip { ligand, hapticity } => ligands::ring_slip(&mut cx, ligand, *hapticity)?,
         Step::OxidativeAddition(s) => redox::oxidative_addition(&mut cx, s)?,
         Step::ReductiveElimination(a, b) => redox::reductive_elimination(&mut cx, a, b)?,
-        Step::Oxidation => redox::electron_transfer(&mut cx, 1)?,
-        Step::Reduction => redox::electron_transfer(&mut cx, -1)?,
+        Step::Oxidation { by } => redox::electron_transfer(&mut cx, 1, by.as_deref())?,
+        Step::Reduction { by } => redox::electron_transfer(&mut cx, -1, by.as_deref())?,
         Step::Protonation { acid } => redox::protonation(&mut cx, acid.as_deref())?,
         Step::Deprotonation { group, base } => {
             redox::deprotonation(&mut cx, group, base.as_deref())?
@@ -741,7 +765,8 @@ pub fn take(
         Step::Cycloaddition {
             unsaturated,
             ligand,
-        } => cyclo::cycloaddition(&mut cx, unsaturated, ligand)?,
+            regio,
+        } => cyclo::cycloaddition(&mut cx, unsaturated, ligand, *regio)?,
         Step::Cycloreversion(alkene) => cyclo::cycloreversion(&mut cx, alkene)?,
         Step::OxidativeCoupling(a, b) => cyclo::oxidative_coupling(&mut cx, a, b)?,
         Step::ReductiveDecoupling(g) => cyclo::reductive_decoupling(&mut cx, g)?,

@@ -89,14 +89,75 @@ pub fn joined_name(m: &Molecule, a: &str, b: &str, cx: &Ctx) -> String {
     format!("{a}-{b}")
 }
 
-/// One electron leaves (oxidation, +1) or comes in (reduction, -1).
-pub fn electron_transfer(cx: &mut Ctx, delta: i32) -> Result<Complex, StepError> {
-    if delta > 0 {
-        cx.leaves(Species::electron());
-    } else {
-        cx.enters(Species::electron());
+/// One electron leaves (oxidation, +1) or comes in (reduction, -1). With a reagent named, the
+/// electron goes to the oxidant (CuCl2 -> CuCl + Cl-, Ag+ -> Ag) or comes from the reductant
+/// (Na -> Na+), so that a cycle closed with it shows the terminal oxidant in its net reaction
+/// (the Wacker process: Crabtree 2014, ch. 14).
+pub fn electron_transfer(cx: &mut Ctx, delta: i32, by: Option<&str>) -> Result<Complex, StepError> {
+    match by {
+        None if delta > 0 => cx.leaves(Species::electron()),
+        None => cx.enters(Species::electron()),
+        Some(name) => {
+            let r = cx.reagent(name)?;
+            let after =
+                if delta > 0 {
+                    reduced(&r.species.structure)
+                } else {
+                    oxidized(&r.species.structure)
+                }
+                .ok_or_else(|| {
+                    StepError::Refused(format!(
+                    "nonet cannot tell what {} becomes when it {} an electron; name a metal salt \
+                     or ion ({}), or leave the reagent out to show the electron alone",
+                    r.species.name,
+                    if delta > 0 { "takes" } else { "gives" },
+                    if delta > 0 { "CuCl2, AgBF4, [Cu+2]" } else { "Na, K, Zn" },
+                ))
+                })?;
+            cx.enters(r.species);
+            for piece in after.components() {
+                let name = name_species(&piece, None, cx.lookup);
+                let s = cx.known(Species::new(name, piece));
+                cx.leaves(s);
+            }
+        }
     }
     recharge(cx.c, delta)
+}
+
+/// A metal atom of a reagent: d or f block, or an alkali or alkaline-earth metal.
+fn metal_atom(m: &Molecule) -> Option<usize> {
+    m.atoms.iter().position(|a| {
+        crate::chem::element::by_symbol(periodic::symbol(a.z)).is_some()
+            || matches!(a.z, 3 | 4 | 11 | 12 | 19 | 20 | 37 | 38 | 55 | 56)
+    })
+}
+
+/// The oxidant after it takes one electron: a metal cation drops one charge (Ag+ -> Ag,
+/// Cu2+ -> Cu+); a neutral metal salt loses one halide or oxo-anion as an anion
+/// (CuCl2 -> CuCl + Cl-).
+fn reduced(m: &Molecule) -> Option<Molecule> {
+    let i = metal_atom(m)?;
+    let mut out = m.clone();
+    if out.atoms[i].charge > 0 {
+        out.atoms[i].charge -= 1;
+        return Some(out);
+    }
+    let (k, j) = out.bonds.iter().enumerate().find_map(|(k, b)| {
+        let j = b.other(i)?;
+        (b.order == 1 && matches!(out.atoms[j].z, 8 | 9 | 17 | 35 | 53)).then_some((k, j))
+    })?;
+    out.bonds.remove(k);
+    out.atoms[j].charge -= 1;
+    Some(out)
+}
+
+/// The reductant after it gives one electron: its metal gains one charge (Na -> Na+).
+fn oxidized(m: &Molecule) -> Option<Molecule> {
+    let i = metal_atom(m)?;
+    let mut out = m.clone();
+    out.atoms[i].charge = out.atoms[i].charge.checked_add(1)?;
+    Some(out)
 }
 
 /// A proton binds at the metal as a hydride: the metal is oxidized by two. With an acid

@@ -20,8 +20,8 @@ fn bench(c: &mut Criterion) {
     let complex = parse(nonet::tui::DEMO_FORMULA, cat.as_ref()).expect("demo formula");
     let mut app = App::new(cat.clone(), complex, "bench".into(), false);
     for ch in "ph".chars() {
-        app.apply(Action::StartSearch);
-        app.apply(Action::Input(ch));
+        let _ = app.apply(Action::StartSearch);
+        let _ = app.apply(Action::Input(ch));
     }
     let theme = Theme { color: true };
     let mut term = Terminal::new(TestBackend::new(120, 40)).expect("terminal");

@@ -53,7 +53,8 @@ fn press(app: &mut App, keys: &str) {
             (KeyEvent::from(KeyCode::Char(c)), c.len_utf8())
         };
         if let Some(a) = app.handle_key(ev) {
-            app.apply(a);
+            let effects = app.apply(a);
+            nonet::tui::effect::run(app, effects);
         }
         rest = &rest[used..];
     }

@@ -5,7 +5,7 @@
 
 mod common;
 
-use common::keys::{planner, press};
+use common::keys::{planner_in_memory, press};
 use nonet::tui::App;
 
 /// The session's closed cycle at the working variant, and its net reaction.
@@ -25,7 +25,7 @@ fn closed_net(app: &App) -> String {
 fn wilkinson_hydrogenation_of_ethylene() {
     // Osborn, Jardine, Young & Wilkinson, J. Chem. Soc. A 1966, 1711; the cycle as Crabtree
     // 2014, ch. 9 draws it: PPh3 off, H2 adds, the alkene binds and inserts, ethane leaves
-    let (mut app, dir) = planner("RhCl(PPh3)3", "wilkinson");
+    let mut app = planner_in_memory("RhCl(PPh3)3");
     let mut keys = 0;
     keys += press(&mut app, "-<enter>"); // PPh3 leaves (the first row)
     keys += press(&mut app, "OH2<enter><enter>");
@@ -34,13 +34,12 @@ fn wilkinson_hydrogenation_of_ethylene() {
     keys += press(&mut app, "<enter>"); // ethane leaves, suggested
     assert!(keys <= 22, "{keys} keys");
     assert_eq!(closed_net(&app), "H2 + C2H4 -> C2H6");
-    let _ = std::fs::remove_dir_all(&dir);
 }
 
 #[test]
 fn heck_coupling_with_a_base() {
     // Heck: ArX + CH2=CH2 + base -> ArCH=CH2 + base-H+ X- (Hartwig 2010, ch. 19)
-    let (mut app, dir) = planner("Pd(PPh3)2", "heck");
+    let mut app = planner_in_memory("Pd(PPh3)2");
     let mut keys = 0;
     keys += press(&mut app, "OPhBr<enter><enter>");
     keys += press(&mut app, "k-<enter>"); // up to PPh3; it leaves
@@ -54,26 +53,24 @@ fn heck_coupling_with_a_base() {
         closed_net(&app),
         "PhBr + C2H4 + Et3N -> styrene + [NHEt3]Br"
     );
-    let _ = std::fs::remove_dir_all(&dir);
 }
 
 #[test]
 fn suzuki_coupling() {
     // Suzuki: ArBr + Ar'B(OH)2 -> Ar-Ar' + BrB(OH)2 (Hartwig 2010, ch. 19)
-    let (mut app, dir) = planner("Pd(PPh3)2", "suzuki");
+    let mut app = planner_in_memory("Pd(PPh3)2");
     let mut keys = 0;
     keys += press(&mut app, "OPhBr<enter><enter>");
     keys += press(&mut app, "Tphb<enter><enter>"); // the search box finds PhB(OH)2
     keys += press(&mut app, "<enter>"); // reductive elimination, suggested
     assert!(keys <= 24, "{keys} keys");
     assert_eq!(closed_net(&app), "PhBr + PhB(OH)2 -> BrB(OH)2 + Ph-Ph");
-    let _ = std::fs::remove_dir_all(&dir);
 }
 
 #[test]
 fn partners_and_alkenes_cycle_with_n() {
     // two groups on the metal: the alkene inserts into the hydride first, then into the methyl
-    let (mut app, dir) = planner("Pd(PPh3)(C2H4)(H)Me", "partners");
+    let mut app = planner_in_memory("Pd(PPh3)(C2H4)(H)Me");
     let row = common::keys::row_of(&app, "C2H4");
     app.row = row;
     press(&mut app, "i");
@@ -87,12 +84,10 @@ fn partners_and_alkenes_cycle_with_n() {
     press(&mut app, "n");
     assert_eq!(shown(&app), "migratory-insertion C2H4 H");
     // β-elimination from sec-butyl offers both butenes
-    let (mut app2, dir2) = planner("Pd(PPh3)Cl(CH(CH3)CH2CH3)", "alkenes");
+    let mut app2 = planner_in_memory("Pd(PPh3)Cl(CH(CH3)CH2CH3)");
     app2.row = common::keys::row_of(&app2, "CH(CH3)CH2CH3");
     press(&mut app2, "d");
     let first = shown(&app2);
     press(&mut app2, "n");
     assert_ne!(shown(&app2), first);
-    let _ = std::fs::remove_dir_all(&dir);
-    let _ = std::fs::remove_dir_all(&dir2);
 }

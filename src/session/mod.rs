@@ -81,6 +81,8 @@ pub struct Session {
     /// Problems met reading the log (a torn last record, a damaged line).
     pub problems: Vec<LogProblem>,
     writer: Option<log::Writer>,
+    /// Kept in memory only: records are taken as written.
+    memory: bool,
     /// Variant id -> position in `variants`, so a 10,000-variant session loads in linear time.
     index: std::collections::HashMap<u64, usize>,
 }
@@ -131,6 +133,7 @@ impl Session {
             bookmarks: Vec::new(),
             problems: Vec::new(),
             writer: None,
+            memory: false,
             index: std::collections::HashMap::new(),
         }
     }
@@ -228,63 +231,120 @@ impl Session {
         report: &Report,
         change: Change,
     ) -> Result<u64, SessionError> {
+        let record = self.prepare(parent, action, complex, report, change);
+        self.write(&record)?;
+        Ok(self.admit(&record))
+    }
+
+    /// The record a committed change will be, with the next free id; nothing is written and
+    /// the tree is unchanged until `admit` (after the record is durable).
+    pub fn prepare(
+        &self,
+        parent: Option<u64>,
+        action: &str,
+        complex: &Complex,
+        report: &Report,
+        change: Change,
+    ) -> Record {
         let id = self.index.keys().map(|&v| v + 1).max().unwrap_or(0);
         let (made, enters, leaves) = match change {
             Change::Start => (Made::Start, Vec::new(), Vec::new()),
             Change::Edit => (Made::Edit, Vec::new(), Vec::new()),
             Change::Step(eq) => (Made::Step, records(&eq.enters), records(&eq.leaves)),
         };
-        let variant = Variant {
+        Record::Variant {
+            nonet_session: log::FORMAT,
             id,
             parent,
             time: log::now(),
             action: action.to_string(),
             formula: complex.formula(false),
             counts: counts(report),
-            made,
+            made_by: Some(made.word().to_string()),
             enters,
             leaves,
-        };
-        let record = Record::Variant {
-            nonet_session: log::FORMAT,
-            id,
-            parent,
-            time: variant.time.clone(),
-            action: variant.action.clone(),
-            formula: variant.formula.clone(),
-            counts: variant.counts.clone(),
-            made_by: Some(made.word().to_string()),
-            enters: variant.enters.clone(),
-            leaves: variant.leaves.clone(),
-        };
-        self.write(&record)?;
-        self.index.insert(id, self.variants.len());
-        self.variants.push(variant);
-        Ok(id)
+        }
     }
 
-    /// Name a variant.
-    pub fn bookmark(&mut self, id: u64, name: &str) -> Result<(), SessionError> {
-        let record = Record::Bookmark {
-            nonet_session: log::FORMAT,
-            id,
-            name: name.to_string(),
-            time: log::now(),
-        };
-        self.write(&record)?;
-        self.bookmarks.retain(|(i, _)| *i != id);
-        self.bookmarks.push((id, name.to_string()));
-        Ok(())
+    /// Take a record into the tree (a variant, or a bookmark); gives the variant's id.
+    pub fn admit(&mut self, record: &Record) -> u64 {
+        match record {
+            Record::Variant {
+                id,
+                parent,
+                time,
+                action,
+                formula,
+                counts,
+                made_by,
+                enters,
+                leaves,
+                ..
+            } => {
+                let variant = Variant {
+                    id: *id,
+                    parent: *parent,
+                    time: time.clone(),
+                    action: action.clone(),
+                    formula: formula.clone(),
+                    counts: counts.clone(),
+                    made: Made::read(made_by.as_deref(), *parent, action),
+                    enters: enters.clone(),
+                    leaves: leaves.clone(),
+                };
+                match self.index.get(id) {
+                    Some(&at) => self.variants[at] = variant,
+                    None => {
+                        self.index.insert(*id, self.variants.len());
+                        self.variants.push(variant);
+                    }
+                }
+                *id
+            }
+            Record::Bookmark { id, name, .. } => {
+                self.bookmarks.retain(|(i, _)| i != id);
+                self.bookmarks.push((*id, name.clone()));
+                *id
+            }
+        }
     }
 
-    fn write(&mut self, record: &Record) -> Result<(), SessionError> {
+    /// Append a record to the log, synced to disk before this returns.
+    pub fn write(&mut self, record: &Record) -> Result<(), SessionError> {
         let path = self.path.display().to_string();
         match &mut self.writer {
+            None if self.memory => Ok(()),
             Some(w) => w.append(record).map_err(|e| SessionError::Io(path, e)),
             None => Err(SessionError::Io(
                 path,
                 io::Error::other("the session was opened read-only"),
             )),
+        }
+    }
+
+    /// A session kept in memory only (the planner's tests, a planner without a log).
+    pub fn in_memory(name: &str) -> Session {
+        Session {
+            memory: true,
+            ..Session::empty(name, Path::new(name))
+        }
+    }
+
+    /// Name a variant.
+    pub fn bookmark(&mut self, id: u64, name: &str) -> Result<(), SessionError> {
+        let record = Session::bookmark_record(id, name);
+        self.write(&record)?;
+        self.admit(&record);
+        Ok(())
+    }
+
+    /// The record that names a variant.
+    pub fn bookmark_record(id: u64, name: &str) -> Record {
+        Record::Bookmark {
+            nonet_session: log::FORMAT,
+            id,
+            name: name.to_string(),
+            time: log::now(),
         }
     }
 

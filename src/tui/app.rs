@@ -6,6 +6,7 @@ use std::sync::Arc;
 use ratatui::crossterm::event::{KeyCode, KeyEvent, KeyEventKind, KeyModifiers};
 
 use super::action::Action;
+use super::effect::Effect;
 use super::keymap::{self, Context};
 use crate::catalogue::{Catalogue, FAMILIES};
 use crate::chem::edit::{Edit, Place, Slot};
@@ -203,6 +204,8 @@ pub struct App {
     pub quit: bool,
     /// Set when the screen must be cleared and drawn in full (Ctrl-L).
     pub repaint: bool,
+    /// I/O asked for by the action being applied, handed to the event loop.
+    effects: Vec<Effect>,
 }
 
 impl App {
@@ -245,6 +248,7 @@ impl App {
             ascii,
             quit: false,
             repaint: false,
+            effects: Vec::new(),
         };
         app.start_keys = app
             .complex
@@ -306,7 +310,44 @@ impl App {
     }
 
     /// Change the state for `action`.
-    pub fn apply(&mut self, action: Action) {
+    /// Change the planner's state for an action; the I/O it needs comes back as effects for
+    /// the event loop to carry out (`effect::run`), whose outcomes go to `settle`.
+    #[must_use = "the effects must be carried out (effect::run) or settled"]
+    pub fn apply(&mut self, action: Action) -> Vec<Effect> {
+        self.act(action);
+        std::mem::take(&mut self.effects)
+    }
+
+    /// Learn how an effect went: a recorded variant becomes the working one, a failed write
+    /// is reported and nothing claims it was saved.
+    pub fn settle(&mut self, effect: Effect, outcome: Result<(), String>) {
+        match (effect, outcome) {
+            (Effect::Record { record, label }, Ok(())) => {
+                if let Some(s) = self.session.as_mut() {
+                    let id = s.admit(&record);
+                    self.variant = Some(id);
+                    self.notice(&format!("done: {label} (variant {id})"), false);
+                }
+            }
+            (Effect::Record { label, .. }, Err(e)) => {
+                self.notice(&format!("{label} done here, but not recorded: {e}"), true)
+            }
+            (Effect::Bookmark { record }, Ok(())) => {
+                if let Some(s) = self.session.as_mut() {
+                    let id = s.admit(&record);
+                    let name = s.bookmark_of(id).unwrap_or_default().to_string();
+                    self.notice(&format!("variant {id} bookmarked as '{name}'"), false);
+                }
+            }
+            (Effect::Bookmark { .. }, Err(e)) => {
+                self.notice(&format!("bookmark not recorded: {e}"), true)
+            }
+            (Effect::Write { done, .. }, Ok(())) => self.notice(&done, false),
+            (Effect::Write { .. }, Err(e)) => self.notice(&e, true),
+        }
+    }
+
+    fn act(&mut self, action: Action) {
         if !matches!(action, Action::Up | Action::Down) {
             self.notice = None;
         }
@@ -732,20 +773,16 @@ impl App {
         self.undo.push((self.complex.clone(), self.variant));
         self.redo.clear();
         self.set_complex(next);
-        let logged = match self.session.as_mut() {
-            Some(s) => match s.commit(self.variant, label, &self.complex, &self.report, change) {
-                Ok(id) => {
-                    self.variant = Some(id);
-                    format!(" (variant {id})")
-                }
-                Err(e) => {
-                    self.notice(&format!("done, but not recorded: {e}"), true);
-                    return;
-                }
-            },
-            None => String::new(),
-        };
-        self.notice(&format!("done: {label}{logged}"), false);
+        match self.session.as_ref() {
+            Some(s) => {
+                let record = s.prepare(self.variant, label, &self.complex, &self.report, change);
+                self.effects.push(Effect::Record {
+                    record,
+                    label: label.to_string(),
+                });
+            }
+            None => self.notice(&format!("done: {label}"), false),
+        }
     }
 
     fn set_complex(&mut self, c: Complex) {
@@ -1116,11 +1153,10 @@ impl App {
         if name.is_empty() {
             return;
         }
-        if let Some(s) = self.session.as_mut() {
-            match s.bookmark(id, &name) {
-                Ok(()) => self.notice(&format!("variant {id} bookmarked as '{name}'"), false),
-                Err(e) => self.notice(&e.to_string(), true),
-            }
+        if self.session.is_some() {
+            self.effects.push(Effect::Bookmark {
+                record: crate::session::Session::bookmark_record(id, &name),
+            });
         }
     }
 
@@ -1147,25 +1183,20 @@ impl App {
             .variant
             .map(|v| crate::session::figure::svg(s, &crate::session::figure::cycle_ids(s, v)));
         let svg_path = s.path.with_extension("svg");
-        let written = std::fs::write(&path, text).and_then(|()| match &figure {
-            Some(f) => std::fs::write(&svg_path, f),
-            None => Ok(()),
-        });
-        match written {
-            Ok(()) => self.notice(
-                &format!(
-                    "session written to {}{}",
-                    path.display(),
-                    if figure.is_some() {
-                        format!(" and its cycle to {}", svg_path.display())
-                    } else {
-                        String::new()
-                    }
-                ),
-                false,
-            ),
-            Err(e) => self.notice(&format!("cannot write {}: {e}", path.display()), true),
+        let done = format!(
+            "session written to {}{}",
+            path.display(),
+            if figure.is_some() {
+                format!(" and its cycle to {}", svg_path.display())
+            } else {
+                String::new()
+            }
+        );
+        let mut files = vec![(path, text)];
+        if let Some(f) = figure {
+            files.push((svg_path, f));
         }
+        self.effects.push(Effect::Write { files, done });
     }
 
     fn submit_formula(&mut self) {

@@ -5,6 +5,7 @@
 
 mod action;
 mod app;
+pub mod effect;
 mod keymap;
 mod pane_catalogue;
 mod pane_complex;
@@ -129,7 +130,8 @@ fn event_loop(
                     continue;
                 }
                 if let Some(a) = app.handle_key(k) {
-                    app.apply(a);
+                    let effects = app.apply(a);
+                    effect::run(app, effects);
                     dirty = true;
                 }
             }

@@ -39,7 +39,8 @@ pub fn press(app: &mut App, keys: &str) -> usize {
     let list = events(keys);
     for code in &list {
         if let Some(a) = app.handle_key(KeyEvent::from(*code)) {
-            app.apply(a);
+            let effects = app.apply(a);
+            nonet::tui::effect::run(app, effects);
         }
     }
     list.len()
@@ -65,6 +66,26 @@ pub fn planner(formula: &str, tag: &str) -> (App, std::path::PathBuf) {
     app.session = Some(s);
     app.variant = Some(root);
     (app, dir)
+}
+
+/// The planner on `formula` with a session kept in memory: nothing touches a disk.
+pub fn planner_in_memory(formula: &str) -> App {
+    let cat = Arc::new(Catalogue::bundled());
+    let c = parse(formula, cat.as_ref()).expect("formula");
+    let mut s = Session::in_memory("t");
+    let root = s
+        .commit(
+            None,
+            "start",
+            &c,
+            &nonet::chem::count(&c),
+            nonet::session::Change::Start,
+        )
+        .expect("root");
+    let mut app = App::new(cat, c, "test".into(), false);
+    app.session = Some(s);
+    app.variant = Some(root);
+    app
 }
 
 /// The row of the working complex that holds `key`.

@@ -85,7 +85,7 @@ const COLOR: Theme = Theme { color: true };
 #[test]
 fn search_select_and_enter_commits_the_swap_then_undo_restores() {
     let mut app = demo();
-    let before = app.complex.formula(false);
+    let before = app.editor.complex.formula(false);
     // the first row of the demo complex is CO; swap it for PMe3 straight from the search box
     press(&mut app, "/PMe3");
     assert_eq!(app.mode, Mode::Search);
@@ -93,13 +93,13 @@ fn search_select_and_enter_commits_the_swap_then_undo_restores() {
     assert_eq!(picked.as_deref(), Some("PMe3"));
     press(&mut app, "<enter>");
     assert_eq!(app.mode, Mode::Normal);
-    let after = app.complex.formula(false);
+    let after = app.editor.complex.formula(false);
     assert_ne!(after, before);
     assert!(after.contains("PMe3") && !after.contains("(CO)"), "{after}");
     press(&mut app, "u");
-    assert_eq!(app.complex.formula(false), before);
+    assert_eq!(app.editor.complex.formula(false), before);
     press(&mut app, "<c-r>");
-    assert_eq!(app.complex.formula(false), after);
+    assert_eq!(app.editor.complex.formula(false), after);
 }
 
 #[test]
@@ -107,10 +107,10 @@ fn typing_q_in_the_search_types_it_and_esc_leaves() {
     let mut app = demo();
     press(&mut app, "/q");
     assert!(!app.quit);
-    assert_eq!(app.query, "q");
+    assert_eq!(app.catalogue.query, "q");
     press(&mut app, "<bs><esc>");
     assert_eq!(app.mode, Mode::Normal);
-    assert_eq!(app.query, "");
+    assert_eq!(app.catalogue.query, "");
     press(&mut app, "q");
     assert!(app.quit);
 }
@@ -121,14 +121,14 @@ fn arrows_and_hjkl_move_alike() {
     let mut b = demo();
     press(&mut a, "jj");
     press(&mut b, "<down><down>");
-    assert_eq!(a.row, b.row);
-    assert_eq!(a.row, 2);
+    assert_eq!(a.editor.row, b.editor.row);
+    assert_eq!(a.editor.row, 2);
     press(&mut a, "l");
     press(&mut b, "<right>");
     assert_eq!(a.focus, Focus::Catalogue);
     assert_eq!(a.focus, b.focus);
     press(&mut a, "jjk");
-    assert_eq!(a.hit, 1);
+    assert_eq!(a.catalogue.hit, 1);
     press(&mut a, "h");
     assert_eq!(a.focus, Focus::Complex);
 }
@@ -136,17 +136,23 @@ fn arrows_and_hjkl_move_alike() {
 #[test]
 fn add_remove_mode_and_charge_are_previewed_then_committed() {
     let mut app = app_for("CpMn(CO)3", false);
-    let count = |app: &App| app.report.metals[0].electron_count.as_int();
+    let count = |app: &App| app.editor.report.metals[0].electron_count.as_int();
     assert_eq!(count(&app), Some(18));
     // ring slip of the selected Cp: preview first, Enter commits
     let cp_row = app
         .slots()
         .iter()
-        .position(|s| app.complex.group(*s).is_some_and(|b| b.ligand.key == "Cp"))
+        .position(|s| {
+            app.editor
+                .complex
+                .group(*s)
+                .is_some_and(|b| b.ligand.key == "Cp")
+        })
         .expect("Cp row");
-    app.row = cp_row;
+    app.editor.row = cp_row;
     press(&mut app, "m");
     let preview = app
+        .editor
         .preview
         .clone()
         .expect("a preview")
@@ -165,16 +171,21 @@ fn add_remove_mode_and_charge_are_previewed_then_committed() {
     let co_row = app
         .slots()
         .iter()
-        .position(|s| app.complex.group(*s).is_some_and(|b| b.ligand.key == "CO"))
+        .position(|s| {
+            app.editor
+                .complex
+                .group(*s)
+                .is_some_and(|b| b.ligand.key == "CO")
+        })
         .expect("CO row");
-    app.row = co_row;
+    app.editor.row = co_row;
     press(&mut app, "x<enter>");
     assert_eq!(count(&app), Some(16));
     press(&mut app, "o<enter>");
-    assert_eq!(app.complex.charge, 1);
+    assert_eq!(app.editor.complex.charge, 1);
     // Esc turns a pending edit back into the swap preview
     press(&mut app, "r<esc>");
-    assert_eq!(app.pending, nonet::tui::Pending::Swap);
+    assert_eq!(app.editor.pending, nonet::tui::Pending::Swap);
 }
 
 #[test]
@@ -182,7 +193,7 @@ fn a_new_formula_from_a_paper_replaces_the_complex_and_bad_ones_are_explained() 
     let mut app = demo();
     press(&mut app, "eIrCl(CO)(PPh3)2<enter>");
     assert_eq!(app.mode, Mode::Normal);
-    assert_eq!(app.report.metals[0].symbol, "Ir");
+    assert_eq!(app.editor.report.metals[0].symbol, "Ir");
     press(&mut app, "eFe(XyZ)3<enter>");
     assert_eq!(
         app.mode,
@@ -192,24 +203,24 @@ fn a_new_formula_from_a_paper_replaces_the_complex_and_bad_ones_are_explained() 
     let notice = app.notice.clone().expect("an error notice");
     assert!(notice.error && notice.text.contains("XyZ"), "{notice:?}");
     press(&mut app, "<esc>u");
-    assert_eq!(app.report.metals[0].symbol, "Rh");
+    assert_eq!(app.editor.report.metals[0].symbol, "Rh");
 }
 
 #[test]
 fn filters_by_family_and_class_from_the_keyboard() {
     let mut app = demo();
-    let all = app.hits.len();
+    let all = app.catalogue.hits.len();
     press(&mut app, "lf");
-    assert!(app.family.is_some());
-    assert!(app.hits.len() < all);
+    assert!(app.catalogue.family.is_some());
+    assert!(app.catalogue.hits.len() < all);
     press(&mut app, "0c");
-    assert_eq!(app.class, Some("L"));
-    assert!(app.hits.iter().all(|&i| app.cat.ligands()[i]
+    assert_eq!(app.catalogue.class, Some("L"));
+    assert!(app.catalogue.hits.iter().all(|&i| app.cat.ligands()[i]
         .modes
         .iter()
         .any(|m| m.class.to_string() == "L")));
     press(&mut app, "0");
-    assert_eq!(app.hits.len(), all);
+    assert_eq!(app.catalogue.hits.len(), all);
 }
 
 #[test]
@@ -292,9 +303,14 @@ fn snapshot_swap_that_changes_saturation() {
     let cl = app
         .slots()
         .iter()
-        .position(|s| app.complex.group(*s).is_some_and(|b| b.ligand.key == "Cl"))
+        .position(|s| {
+            app.editor
+                .complex
+                .group(*s)
+                .is_some_and(|b| b.ligand.key == "Cl")
+        })
         .expect("Cl row");
-    app.row = cl;
+    app.editor.row = cl;
     press(&mut app, "/allyl");
     insta::assert_snapshot!("swap_saturation_80x24", text(&screen(&app, 80, 24, COLOR)));
     insta::assert_snapshot!(

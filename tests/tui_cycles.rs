@@ -10,11 +10,11 @@ use nonet::tui::App;
 
 /// The session's closed cycle at the working variant, and its net reaction.
 fn closed_net(app: &App) -> String {
-    let s = app.session.as_ref().expect("session");
-    let v = app.variant.expect("variant");
+    let s = app.log.session.as_ref().expect("session");
+    let v = app.log.variant.expect("variant");
     let from = s
         .closes(v)
-        .unwrap_or_else(|| panic!("no cycle closed at {}", app.complex.formula(false)));
+        .unwrap_or_else(|| panic!("no cycle closed at {}", app.editor.complex.formula(false)));
     let net = s.net(from, v);
     assert!(net.by_steps(), "{}", net.text());
     assert!(net.net.check_balance().is_ok(), "{}", net.text());
@@ -72,9 +72,9 @@ fn partners_and_alkenes_cycle_with_n() {
     // two groups on the metal: the alkene inserts into the hydride first, then into the methyl
     let mut app = planner_in_memory("Pd(PPh3)(C2H4)(H)Me");
     let row = common::keys::row_of(&app, "C2H4");
-    app.row = row;
+    app.editor.row = row;
     press(&mut app, "i");
-    let shown = |app: &App| match &app.pending {
+    let shown = |app: &App| match &app.editor.pending {
         nonet::tui::Pending::Step(s) => s.to_string(),
         other => format!("{other:?}"),
     };
@@ -85,7 +85,7 @@ fn partners_and_alkenes_cycle_with_n() {
     assert_eq!(shown(&app), "migratory-insertion C2H4 H");
     // β-elimination from sec-butyl offers both butenes
     let mut app2 = planner_in_memory("Pd(PPh3)Cl(CH(CH3)CH2CH3)");
-    app2.row = common::keys::row_of(&app2, "CH(CH3)CH2CH3");
+    app2.editor.row = common::keys::row_of(&app2, "CH(CH3)CH2CH3");
     press(&mut app2, "d");
     let first = shown(&app2);
     press(&mut app2, "n");

@@ -27,7 +27,7 @@ fn press_collect(app: &mut App, keys: &str, outcome: Result<(), String>) -> Vec<
 #[test]
 fn a_step_asks_for_a_record_with_its_equation() {
     let mut app = planner_in_memory("RhCl(PPh3)3");
-    let start = app.variant;
+    let start = app.log.variant;
     let effects = press_collect(&mut app, "-<enter>", Ok(()));
     let [Effect::Record { record, label }] = &effects[..] else {
         panic!("one record expected: {effects:?}");
@@ -46,15 +46,15 @@ fn a_step_asks_for_a_record_with_its_equation() {
     assert_eq!(*parent, start);
     assert_eq!(leaves.len(), 1, "PPh3 leaves: {leaves:?}");
     // settled as written: the working variant moved to it
-    assert_ne!(app.variant, start);
+    assert_ne!(app.log.variant, start);
     assert!(app.notice.as_ref().is_some_and(|n| !n.error));
 }
 
 #[test]
 fn a_failed_record_is_not_claimed_saved() {
     let mut app = planner_in_memory("RhCl(PPh3)3");
-    let start = app.variant;
-    let n = app.session.as_ref().map(|s| s.variants.len());
+    let start = app.log.variant;
+    let n = app.log.session.as_ref().map(|s| s.variants.len());
     press_collect(
         &mut app,
         "-<enter>",
@@ -65,8 +65,8 @@ fn a_failed_record_is_not_claimed_saved() {
     assert!(notice.text.contains("not recorded"), "{}", notice.text);
     assert!(notice.text.contains("No space left"), "{}", notice.text);
     // the tree has no variant for it and the working variant did not move
-    assert_eq!(app.session.as_ref().map(|s| s.variants.len()), n);
-    assert_eq!(app.variant, start);
+    assert_eq!(app.log.session.as_ref().map(|s| s.variants.len()), n);
+    assert_eq!(app.log.variant, start);
 }
 
 #[test]
@@ -109,6 +109,6 @@ fn a_bookmark_is_an_effect_too() {
         matches!(&effects[..], [Effect::Bookmark { .. }]),
         "{effects:?}"
     );
-    let s = app.session.as_ref().expect("session");
+    let s = app.log.session.as_ref().expect("session");
     assert_eq!(s.bookmark_of(0), Some("Vaska start"));
 }

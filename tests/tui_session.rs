@@ -12,9 +12,9 @@ use common::keys::{planner, press, row_of};
 fn commits_are_recorded_and_going_back_branches() {
     let (mut app, dir) = planner("IrCl(CO)(PPh3)2", "branch");
     press(&mut app, "/PMe3<enter>");
-    assert_eq!(app.variant, Some(1));
+    assert_eq!(app.log.variant, Some(1));
     press(&mut app, "u/PCy3<enter>");
-    let s = app.session.as_ref().expect("session");
+    let s = app.log.session.as_ref().expect("session");
     assert_eq!(s.variants.len(), 3);
     assert_eq!(s.get(1).and_then(|v| v.parent), Some(0));
     assert_eq!(
@@ -35,14 +35,14 @@ fn the_tree_jumps_bookmarks_compares_and_exports() {
     press(&mut app, "t");
     assert_eq!(app.mode, Mode::Tree);
     press(&mut app, "k<enter>");
-    assert_eq!(app.variant, Some(0));
-    assert!(app.complex.formula(false).contains("PPh3)2"));
+    assert_eq!(app.log.variant, Some(0));
+    assert!(app.editor.complex.formula(false).contains("PPh3)2"));
     press(&mut app, "tbVaska start<enter>");
-    let s = app.session.as_ref().expect("session");
+    let s = app.log.session.as_ref().expect("session");
     assert_eq!(s.bookmark_of(0), Some("Vaska start"));
     press(&mut app, "jc");
     assert_eq!(app.mode, Mode::Compare);
-    assert_eq!(app.compare, Some(1));
+    assert_eq!(app.log.compare, Some(1));
     press(&mut app, "<esc>w");
     assert!(dir.join("t.md").exists(), "export written next to the log");
     let _ = std::fs::remove_dir_all(&dir);
@@ -51,33 +51,48 @@ fn the_tree_jumps_bookmarks_compares_and_exports() {
 #[test]
 fn steps_are_previewed_then_committed_and_refusals_explained() {
     let (mut app, dir) = planner("IrCl(CO)(PPh3)2", "steps");
-    let before = app.complex.formula(false);
+    let before = app.editor.complex.formula(false);
     press(&mut app, "OH2<enter>");
-    assert!(matches!(app.pending, Pending::Step(_)));
+    assert!(matches!(app.editor.pending, Pending::Step(_)));
     let p = app
+        .editor
         .preview
         .clone()
         .expect("preview")
         .expect("the step is allowed");
     assert_eq!(p.after_report.metals[0].electron_count.as_int(), Some(18));
     assert_eq!(
-        app.complex.formula(false),
+        app.editor.complex.formula(false),
         before,
         "nothing changes before Enter"
     );
     press(&mut app, "<enter>");
-    assert_eq!(app.report.metals[0].oxidation_state.as_int(), Some(3));
+    assert_eq!(
+        app.editor.report.metals[0].oxidation_state.as_int(),
+        Some(3)
+    );
     // now 18 e: a second oxidative addition is refused, with the reason in the preview
     press(&mut app, "OH2<enter>");
-    let why = app.preview.clone().expect("preview").expect_err("refused");
+    let why = app
+        .editor
+        .preview
+        .clone()
+        .expect("preview")
+        .expect_err("refused");
     assert!(why.contains("open site"), "{why}");
     press(&mut app, "<enter>");
-    assert_eq!(app.report.metals[0].oxidation_state.as_int(), Some(3));
+    assert_eq!(
+        app.editor.report.metals[0].oxidation_state.as_int(),
+        Some(3)
+    );
     // reductive elimination of the selected H with its partner H
-    app.row = row_of(&app, "H");
+    app.editor.row = row_of(&app, "H");
     press(&mut app, "<esc>R<enter>");
-    assert_eq!(app.report.metals[0].oxidation_state.as_int(), Some(1));
-    let s = app.session.as_ref().expect("session");
+    assert_eq!(
+        app.editor.report.metals[0].oxidation_state.as_int(),
+        Some(1)
+    );
+    let s = app.log.session.as_ref().expect("session");
     assert!(s
         .variants
         .iter()
@@ -92,32 +107,32 @@ fn steps_are_previewed_then_committed_and_refusals_explained() {
 #[test]
 fn insertion_and_elimination_keys_act_on_the_selected_ligand() {
     let (mut app, dir) = planner("Mn(CO)5Me", "insert");
-    app.row = row_of(&app, "CO");
+    app.editor.row = row_of(&app, "CO");
     press(&mut app, "i<enter>");
     assert!(
-        app.complex.formula(false).contains("COMe"),
+        app.editor.complex.formula(false).contains("COMe"),
         "{}",
-        app.complex.formula(false)
+        app.editor.complex.formula(false)
     );
     let _ = std::fs::remove_dir_all(&dir);
 
     let (mut app, dir) = planner("PdEt(Cl)(PPh3)", "beta");
-    app.row = row_of(&app, "Et");
+    app.editor.row = row_of(&app, "Et");
     press(&mut app, "d<enter>");
-    assert!(app.complex.formula(false).contains("C2H4"));
-    app.row = row_of(&app, "H");
+    assert!(app.editor.complex.formula(false).contains("C2H4"));
+    app.editor.row = row_of(&app, "H");
     // P asks for a base; Enter with none lets the proton go free, Enter again commits
     press(&mut app, "P<enter><enter>");
-    assert_eq!(app.complex.charge, -1);
+    assert_eq!(app.editor.complex.charge, -1);
     press(&mut app, "p<enter>");
-    assert_eq!(app.complex.charge, 0);
+    assert_eq!(app.editor.complex.charge, 0);
     let _ = std::fs::remove_dir_all(&dir);
 }
 
 #[test]
 fn the_screening_view_ranks_swaps_and_opens_the_preview() {
     let (mut app, dir) = planner("IrCl(CO)(PPh3)2", "screen");
-    app.row = row_of(&app, "PPh3");
+    app.editor.row = row_of(&app, "PPh3");
     press(&mut app, "S");
     assert_eq!(app.mode, Mode::Screen);
     assert!(!app.screen.found.is_empty());
@@ -145,7 +160,12 @@ fn the_screening_view_ranks_swaps_and_opens_the_preview() {
     press(&mut app, "<enter>");
     assert_eq!(app.mode, Mode::Normal);
     assert_eq!(app.selected_ligand().map(|l| l.key.clone()), Some(first));
-    let p = app.preview.clone().expect("preview").expect("a swap");
+    let p = app
+        .editor
+        .preview
+        .clone()
+        .expect("preview")
+        .expect("a swap");
     assert_eq!(p.after_report.metals[0].electron_count.as_int(), Some(16));
     let _ = std::fs::remove_dir_all(&dir);
 }

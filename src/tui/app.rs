@@ -148,28 +148,32 @@ impl Default for ScreenView {
 /// CBC classes offered by the class filter, most common first.
 pub const CLASS_FILTERS: &[&str] = &["L", "X", "LX", "L2", "L2X", "L3", "X2", "Z", "L2X2", "X3"];
 
-pub struct App {
-    pub cat: Arc<Catalogue>,
+/// The working complex and how it got here: what the left pane shows and the preview acts on.
+pub struct Editor {
     pub complex: Complex,
     pub report: Report,
     /// A title for the working complex (the demo scenario, or what was typed).
     pub title: String,
     undo: Vec<(Complex, Option<u64>)>,
     redo: Vec<(Complex, Option<u64>)>,
-    /// The session log every commit goes to, if the planner has one.
-    pub session: Option<Session>,
-    /// The variant of the session the working complex is.
-    pub variant: Option<u64>,
-    /// Selected row of the tree view.
-    pub tree_row: usize,
-    /// The variant compared with the working one.
-    pub compare: Option<u64>,
-    /// The screening view: its constraints, ranking, candidates and cursor.
-    pub screen: ScreenView,
-    pub focus: Focus,
-    pub mode: Mode,
     /// Selected row of the working complex (index into `complex.slots()`).
     pub row: usize,
+    pub pending: Pending,
+    pub preview: Option<Result<Preview, String>>,
+    /// Other ways the step in the preview could go (partners, alkenes), and which is shown.
+    pub choices: Vec<Step>,
+    pub choice: usize,
+    /// Keys of ligands that left by dissociation on the path, most recent first.
+    departed: Vec<String>,
+    /// The step that made the working complex, if it was one.
+    last_step: Option<Step>,
+    /// Ligand keys of the complex the planner started from: only these are expected back.
+    start_keys: Vec<String>,
+}
+
+/// The catalogue pane: the search, its filters and the hits.
+#[derive(Default)]
+pub struct CatalogueView {
     pub query: String,
     /// Catalogue indices matching the query and filters, best first.
     pub hits: Vec<usize>,
@@ -177,27 +181,46 @@ pub struct App {
     pub hit: usize,
     pub family: Option<&'static str>,
     pub class: Option<&'static str>,
-    pub pending: Pending,
-    pub preview: Option<Result<Preview, String>>,
-    pub formula_input: String,
-    /// Catalogue ligands or substrates matching what is typed at a step's question, and the
-    /// one picked with the arrows (None: the text as typed).
-    pub prompt_hits: Vec<String>,
-    pub prompt_hit: Option<usize>,
-    /// The step a question is for, and the ligand it was asked about.
-    asking_for: Option<(Ask, Option<String>)>,
-    /// Other ways the step in the preview could go (partners, alkenes), and which is shown.
-    pub choices: Vec<Step>,
-    pub choice: usize,
-    /// Keys of ligands that left by dissociation on the path, most recent first (without a
-    /// session, kept here).
-    departed: Vec<String>,
-    /// The step that made the working complex, if it was one.
-    last_step: Option<Step>,
-    /// Ligand keys of the complex the planner started from: only these are expected back.
-    start_keys: Vec<String>,
+}
+
+/// The session: its log, where the working complex sits in it, and the tree and cycle views.
+#[derive(Default)]
+pub struct SessionView {
+    /// The session log every commit goes to, if the planner has one.
+    pub session: Option<Session>,
+    /// The variant of the session the working complex is.
+    pub variant: Option<u64>,
+    /// Selected row of the tree view.
+    pub row: usize,
+    /// The variant compared with the working one.
+    pub compare: Option<u64>,
     /// Scroll position of the cycle view.
     pub cycle_scroll: u16,
+}
+
+/// The line at the bottom: a formula, a bookmark name, or the answer to a step's question.
+#[derive(Default)]
+pub struct PromptView {
+    pub input: String,
+    /// Catalogue ligands or substrates matching what is typed at a step's question, and the
+    /// one picked with the arrows (None: the text as typed).
+    pub hits: Vec<String>,
+    pub pick: Option<usize>,
+    /// The step a question is for, and the ligand it was asked about.
+    asking_for: Option<(Ask, Option<String>)>,
+}
+
+/// The planner's whole state, grouped by view; it does no I/O (see `effect`).
+pub struct App {
+    pub cat: Arc<Catalogue>,
+    pub editor: Editor,
+    pub catalogue: CatalogueView,
+    pub log: SessionView,
+    /// The screening view: its constraints, ranking, candidates and cursor.
+    pub screen: ScreenView,
+    pub prompt: PromptView,
+    pub focus: Focus,
+    pub mode: Mode,
     pub notice: Option<Notice>,
     pub help_scroll: u16,
     pub ascii: bool,
@@ -213,36 +236,27 @@ impl App {
         let report = count(&complex);
         let mut app = App {
             cat,
-            complex,
-            report,
-            title,
-            undo: Vec::new(),
-            redo: Vec::new(),
-            session: None,
-            variant: None,
-            tree_row: 0,
-            compare: None,
+            editor: Editor {
+                complex,
+                report,
+                title,
+                undo: Vec::new(),
+                redo: Vec::new(),
+                row: 0,
+                pending: Pending::Swap,
+                preview: None,
+                choices: Vec::new(),
+                choice: 0,
+                departed: Vec::new(),
+                last_step: None,
+                start_keys: Vec::new(),
+            },
+            catalogue: CatalogueView::default(),
+            log: SessionView::default(),
             screen: ScreenView::default(),
+            prompt: PromptView::default(),
             focus: Focus::Complex,
             mode: Mode::Normal,
-            row: 0,
-            query: String::new(),
-            hits: Vec::new(),
-            hit: 0,
-            family: None,
-            class: None,
-            pending: Pending::Swap,
-            preview: None,
-            formula_input: String::new(),
-            prompt_hits: Vec::new(),
-            prompt_hit: None,
-            asking_for: None,
-            choices: Vec::new(),
-            choice: 0,
-            departed: Vec::new(),
-            last_step: None,
-            start_keys: Vec::new(),
-            cycle_scroll: 0,
             notice: None,
             help_scroll: 0,
             ascii,
@@ -250,7 +264,8 @@ impl App {
             repaint: false,
             effects: Vec::new(),
         };
-        app.start_keys = app
+        app.editor.start_keys = app
+            .editor
             .complex
             .all_ligands()
             .map(|(_, b)| b.ligand.key.clone())
@@ -298,15 +313,18 @@ impl App {
     }
 
     pub fn slots(&self) -> Vec<Slot> {
-        self.complex.slots()
+        self.editor.complex.slots()
     }
 
     pub fn selected_slot(&self) -> Option<Slot> {
-        self.slots().get(self.row).copied()
+        self.slots().get(self.editor.row).copied()
     }
 
     pub fn selected_ligand(&self) -> Option<&Arc<LigandDef>> {
-        self.hits.get(self.hit).map(|&i| &self.cat.ligands()[i])
+        self.catalogue
+            .hits
+            .get(self.catalogue.hit)
+            .map(|&i| &self.cat.ligands()[i])
     }
 
     /// Change the state for `action`.
@@ -323,9 +341,9 @@ impl App {
     pub fn settle(&mut self, effect: Effect, outcome: Result<(), String>) {
         match (effect, outcome) {
             (Effect::Record { record, label }, Ok(())) => {
-                if let Some(s) = self.session.as_mut() {
+                if let Some(s) = self.log.session.as_mut() {
                     let id = s.admit(&record);
-                    self.variant = Some(id);
+                    self.log.variant = Some(id);
                     self.notice(&format!("done: {label} (variant {id})"), false);
                 }
             }
@@ -333,7 +351,7 @@ impl App {
                 self.notice(&format!("{label} done here, but not recorded: {e}"), true)
             }
             (Effect::Bookmark { record }, Ok(())) => {
-                if let Some(s) = self.session.as_mut() {
+                if let Some(s) = self.log.session.as_mut() {
                     let id = s.admit(&record);
                     let name = s.bookmark_of(id).unwrap_or_default().to_string();
                     self.notice(&format!("variant {id} bookmarked as '{name}'"), false);
@@ -365,7 +383,7 @@ impl App {
                 }
             }
             Action::OpenCycle => {
-                self.cycle_scroll = 0;
+                self.log.cycle_scroll = 0;
                 self.mode = Mode::Cycle;
             }
             Action::Up => self.move_by(-1),
@@ -383,39 +401,39 @@ impl App {
             Action::StartSearch => {
                 // each search starts afresh, as in a pager or an editor
                 self.mode = Mode::Search;
-                self.query.clear();
-                self.pending = Pending::Swap;
+                self.catalogue.query.clear();
+                self.editor.pending = Pending::Swap;
                 self.refilter(false);
             }
             Action::Input(c) => match self.mode {
                 Mode::Search => {
-                    self.query.push(c);
+                    self.catalogue.query.push(c);
                     self.refilter(true);
                 }
                 Mode::Line(_) => {
-                    self.formula_input.push(c);
+                    self.prompt.input.push(c);
                     self.refresh_hits();
                 }
                 _ => {}
             },
             Action::DeleteChar => match self.mode {
                 Mode::Search => {
-                    self.query.pop();
+                    self.catalogue.query.pop();
                     self.refilter(false);
                 }
                 Mode::Line(_) => {
-                    self.formula_input.pop();
+                    self.prompt.input.pop();
                     self.refresh_hits();
                 }
                 _ => {}
             },
             Action::ClearInput => match self.mode {
                 Mode::Search => {
-                    self.query.clear();
+                    self.catalogue.query.clear();
                     self.refilter(false);
                 }
                 Mode::Line(_) => {
-                    self.formula_input.clear();
+                    self.prompt.input.clear();
                     self.refresh_hits();
                 }
                 _ => {}
@@ -473,7 +491,7 @@ impl App {
             Action::OpenTree => self.open_tree(),
             Action::JumpToVariant => self.jump_to_variant(),
             Action::StartBookmark => {
-                if self.session.is_some() {
+                if self.log.session.is_some() {
                     self.start_line(LineKind::Bookmark);
                 }
             }
@@ -534,16 +552,16 @@ impl App {
             Action::Undo => self.undo(),
             Action::Redo => self.redo(),
             Action::CycleFamily => {
-                self.family = cycle(FAMILIES, self.family);
+                self.catalogue.family = cycle(FAMILIES, self.catalogue.family);
                 self.refilter(false);
             }
             Action::CycleClass => {
-                self.class = cycle(CLASS_FILTERS, self.class);
+                self.catalogue.class = cycle(CLASS_FILTERS, self.catalogue.class);
                 self.refilter(false);
             }
             Action::ClearFilters => {
-                self.family = None;
-                self.class = None;
+                self.catalogue.family = None;
+                self.catalogue.class = None;
                 self.refilter(false);
             }
         }
@@ -551,15 +569,15 @@ impl App {
 
     fn move_by(&mut self, delta: i32) {
         if let Mode::Line(_) = self.mode {
-            let n = self.prompt_hits.len();
+            let n = self.prompt.hits.len();
             if n > 0 {
-                let at = self.prompt_hit.map_or(-1, |i| i as i64) + delta as i64;
-                self.prompt_hit = Some(at.clamp(0, n as i64 - 1) as usize);
+                let at = self.prompt.pick.map_or(-1, |i| i as i64) + delta as i64;
+                self.prompt.pick = Some(at.clamp(0, n as i64 - 1) as usize);
             }
             return;
         }
         if self.mode == Mode::Cycle {
-            self.cycle_scroll = (self.cycle_scroll as i32 + delta).max(0) as u16;
+            self.log.cycle_scroll = (self.log.cycle_scroll as i32 + delta).max(0) as u16;
             return;
         }
         if self.mode == Mode::Help {
@@ -573,16 +591,16 @@ impl App {
             return;
         }
         if self.mode == Mode::Tree {
-            let n = self.session.as_ref().map_or(0, |s| s.variants.len());
-            self.tree_row =
-                (self.tree_row as i64 + delta as i64).clamp(0, n.max(1) as i64 - 1) as usize;
+            let n = self.log.session.as_ref().map_or(0, |s| s.variants.len());
+            self.log.row =
+                (self.log.row as i64 + delta as i64).clamp(0, n.max(1) as i64 - 1) as usize;
             return;
         }
         let on_catalogue = self.mode == Mode::Search || self.focus == Focus::Catalogue;
         let (pos, len) = if on_catalogue {
-            (&mut self.hit, self.hits.len())
+            (&mut self.catalogue.hit, self.catalogue.hits.len())
         } else {
-            (&mut self.row, self.complex.slots().len())
+            (&mut self.editor.row, self.editor.complex.slots().len())
         };
         if len == 0 {
             *pos = 0;
@@ -590,23 +608,26 @@ impl App {
             *pos = (*pos as i64 + delta as i64).clamp(0, len as i64 - 1) as usize;
         }
         if !on_catalogue {
-            if let Pending::Mode(_) = self.pending {
-                self.pending = Pending::Swap;
+            if let Pending::Mode(_) = self.editor.pending {
+                self.editor.pending = Pending::Swap;
             }
         }
         self.refresh_preview();
     }
 
     fn set_pending(&mut self, p: Pending) {
-        self.pending = p;
-        self.choices.clear();
-        self.choice = 0;
+        self.editor.pending = p;
+        self.editor.choices.clear();
+        self.editor.choice = 0;
         self.refresh_preview();
     }
 
     /// Each press of the mode key steps to the next binding mode of the selected ligand.
     fn pend_next_mode(&mut self) {
-        let Some(b) = self.selected_slot().and_then(|s| self.complex.group(s)) else {
+        let Some(b) = self
+            .selected_slot()
+            .and_then(|s| self.editor.complex.group(s))
+        else {
             self.notice("select a ligand of the working complex first", true);
             return;
         };
@@ -615,7 +636,7 @@ impl App {
             self.notice(&format!("{} has only one binding mode", b.ligand.key), true);
             return;
         }
-        let current = match &self.pending {
+        let current = match &self.editor.pending {
             Pending::Mode(m) => *m,
             _ => b.mode,
         };
@@ -628,7 +649,7 @@ impl App {
     pub fn pending_edit(&self) -> Result<Edit, String> {
         let slot = self.selected_slot();
         let ligand = self.selected_ligand().cloned();
-        match &self.pending {
+        match &self.editor.pending {
             Pending::Swap => match (slot, ligand) {
                 (Some(slot), Some(ligand)) => Ok(Edit::Swap {
                     mode: 0,
@@ -659,18 +680,19 @@ impl App {
 
     /// Recompute the preview for the current selection and pending edit or step.
     pub fn refresh_preview(&mut self) {
-        self.preview = Some(match &self.pending {
-            Pending::Step(step) => steps::take(&self.complex, step, self.cat.as_ref())
-                .map(|o| preview::from_step(&self.complex, &o))
+        self.editor.preview = Some(match &self.editor.pending {
+            Pending::Step(step) => steps::take(&self.editor.complex, step, self.cat.as_ref())
+                .map(|o| preview::from_step(&self.editor.complex, &o))
                 .map_err(|e| e.to_string()),
             _ => self.pending_edit().and_then(|e| {
-                preview::preview(&self.complex, &self.report, &e).map_err(|e| e.to_string())
+                preview::preview(&self.editor.complex, &self.editor.report, &e)
+                    .map_err(|e| e.to_string())
             }),
         });
     }
 
     fn commit(&mut self) {
-        let p = match &self.preview {
+        let p = match &self.editor.preview {
             Some(Ok(p)) => p.clone(),
             Some(Err(e)) => {
                 let e = e.clone();
@@ -680,18 +702,18 @@ impl App {
             None => return,
         };
         let label = match &p.change {
-            Change::Edit(e) => describe(e, &self.complex),
+            Change::Edit(e) => describe(e, &self.editor.complex),
             Change::Step(s) => s.to_string(),
         };
         let change = match &p.equation {
             Some(eq) => crate::session::Change::Step(eq),
             None => crate::session::Change::Edit,
         };
-        let before = self.complex.clone();
+        let before = self.editor.complex.clone();
         self.advance(p.after.clone(), &label, change);
         if let Some(slot) = p.focus {
             if let Some(i) = self.slots().iter().position(|s| *s == slot) {
-                self.row = i;
+                self.editor.row = i;
             }
         }
         self.mode = Mode::Normal;
@@ -715,18 +737,19 @@ impl App {
             }
             v
         };
-        let (old, new) = (keys(before), keys(&self.complex));
+        let (old, new) = (keys(before), keys(&self.editor.complex));
         let have =
             |list: &[(String, u32)], k: &str| list.iter().find(|(x, _)| x == k).map_or(0, |e| e.1);
         // the first ligand the change brought in (or added one more of)
         if step.is_some() {
             if let Some((k, _)) = new.iter().find(|(k, n)| *n > have(&old, k)) {
-                if let Some(i) = self
-                    .slots()
-                    .iter()
-                    .position(|s| self.complex.group(*s).is_some_and(|b| b.ligand.key == *k))
-                {
-                    self.row = i;
+                if let Some(i) = self.slots().iter().position(|s| {
+                    self.editor
+                        .complex
+                        .group(*s)
+                        .is_some_and(|b| b.ligand.key == *k)
+                }) {
+                    self.editor.row = i;
                 }
             }
         }
@@ -734,34 +757,34 @@ impl App {
             Some(Step::Dissociation(_)) => {
                 // a catalyst's own ligand that left is expected back; a product is not
                 for (k, n) in &old {
-                    if *n > have(&new, k) && self.start_keys.contains(k) {
-                        self.departed.insert(0, k.clone());
+                    if *n > have(&new, k) && self.editor.start_keys.contains(k) {
+                        self.editor.departed.insert(0, k.clone());
                     }
                 }
             }
             Some(Step::Association(_)) => {
                 for (k, n) in &new {
                     if *n > have(&old, k) {
-                        if let Some(i) = self.departed.iter().position(|d| d == k) {
-                            self.departed.remove(i);
+                        if let Some(i) = self.editor.departed.iter().position(|d| d == k) {
+                            self.editor.departed.remove(i);
                         }
                     }
                 }
             }
             _ => {}
         }
-        self.last_step = step;
+        self.editor.last_step = step;
         let next = crate::chem::steps::suggest(
-            &self.complex,
+            &self.editor.complex,
             self.selected_slot(),
-            self.last_step.as_ref(),
-            &self.departed,
+            self.editor.last_step.as_ref(),
+            &self.editor.departed,
             self.cat.as_ref(),
         );
         match next {
             Some(s) => self.pend_choices(s),
             None => {
-                self.choices.clear();
+                self.editor.choices.clear();
                 self.set_pending(Pending::Swap);
             }
         }
@@ -770,12 +793,20 @@ impl App {
     /// Make `next` the working complex as a committed change: undo can step back, and the
     /// session log gets a new variant whose parent is the current one.
     fn advance(&mut self, next: Complex, label: &str, change: crate::session::Change) {
-        self.undo.push((self.complex.clone(), self.variant));
-        self.redo.clear();
+        self.editor
+            .undo
+            .push((self.editor.complex.clone(), self.log.variant));
+        self.editor.redo.clear();
         self.set_complex(next);
-        match self.session.as_ref() {
+        match self.log.session.as_ref() {
             Some(s) => {
-                let record = s.prepare(self.variant, label, &self.complex, &self.report, change);
+                let record = s.prepare(
+                    self.log.variant,
+                    label,
+                    &self.editor.complex,
+                    &self.editor.report,
+                    change,
+                );
                 self.effects.push(Effect::Record {
                     record,
                     label: label.to_string(),
@@ -786,21 +817,23 @@ impl App {
     }
 
     fn set_complex(&mut self, c: Complex) {
-        self.report = count(&c);
-        self.complex = c;
+        self.editor.report = count(&c);
+        self.editor.complex = c;
         let n = self.slots().len();
-        if self.row >= n {
-            self.row = n.saturating_sub(1);
+        if self.editor.row >= n {
+            self.editor.row = n.saturating_sub(1);
         }
     }
 
     fn undo(&mut self) {
-        match self.undo.pop() {
+        match self.editor.undo.pop() {
             Some((prev, variant)) => {
-                self.redo.push((self.complex.clone(), self.variant));
+                self.editor
+                    .redo
+                    .push((self.editor.complex.clone(), self.log.variant));
                 self.set_complex(prev);
-                self.variant = variant;
-                self.pending = Pending::Swap;
+                self.log.variant = variant;
+                self.editor.pending = Pending::Swap;
                 self.refresh_preview();
                 self.notice(
                     "undone (the session keeps both; a new change branches here)",
@@ -812,12 +845,14 @@ impl App {
     }
 
     fn redo(&mut self) {
-        match self.redo.pop() {
+        match self.editor.redo.pop() {
             Some((next, variant)) => {
-                self.undo.push((self.complex.clone(), self.variant));
+                self.editor
+                    .undo
+                    .push((self.editor.complex.clone(), self.log.variant));
                 self.set_complex(next);
-                self.variant = variant;
-                self.pending = Pending::Swap;
+                self.log.variant = variant;
+                self.editor.pending = Pending::Swap;
                 self.refresh_preview();
                 self.notice("redone", false);
             }
@@ -827,12 +862,15 @@ impl App {
 
     fn start_line(&mut self, kind: LineKind) {
         self.mode = Mode::Line(kind);
-        self.formula_input.clear();
+        self.prompt.input.clear();
     }
 
     /// Preview a step on the selected ligand.
     fn pend_on_selected(&mut self, make: fn(String) -> Step) {
-        match self.selected_slot().and_then(|s| self.complex.group(s)) {
+        match self
+            .selected_slot()
+            .and_then(|s| self.editor.complex.group(s))
+        {
             Some(b) => {
                 let key = b.ligand.key.clone();
                 self.set_pending(Pending::Step(make(key)));
@@ -846,27 +884,27 @@ impl App {
     fn ask(&mut self, what: Ask, on_selected: bool) {
         let selected = self
             .selected_slot()
-            .and_then(|s| self.complex.group(s))
+            .and_then(|s| self.editor.complex.group(s))
             .map(|b| b.ligand.key.clone());
         if on_selected && selected.is_none() {
             self.notice("select a ligand of the working complex first", true);
             return;
         }
-        self.asking_for = Some((what, selected));
+        self.prompt.asking_for = Some((what, selected));
         self.start_line(LineKind::Ask(what));
         self.refresh_hits();
     }
 
     /// The catalogue ligands or substrates that match what is typed so far.
     fn refresh_hits(&mut self) {
-        self.prompt_hit = None;
-        self.prompt_hits.clear();
+        self.prompt.pick = None;
+        self.prompt.hits.clear();
         let Mode::Line(LineKind::Ask(what)) = self.mode else {
             return;
         };
-        let q = self.formula_input.trim().to_lowercase();
+        let q = self.prompt.input.trim().to_lowercase();
         if what == Ask::Step {
-            self.prompt_hits = crate::chem::steps::STEP_WORDS
+            self.prompt.hits = crate::chem::steps::STEP_WORDS
                 .iter()
                 .filter(|(w, _, _)| {
                     q.is_empty() || w.starts_with(q.split(' ').next().unwrap_or(""))
@@ -880,9 +918,9 @@ impl App {
             return;
         }
         if what.is_ligand() {
-            self.prompt_hits = self
+            self.prompt.hits = self
                 .cat
-                .search(&self.formula_input)
+                .search(&self.prompt.input)
                 .into_iter()
                 .take(8)
                 .map(|h| h.ligand.key.clone())
@@ -920,15 +958,15 @@ impl App {
                 .then(a.2.cmp(&b.2))
         });
         let hits: Vec<(usize, String)> = hits.into_iter().map(|(_, at, k)| (at, k)).collect();
-        self.prompt_hits = hits.into_iter().take(8).map(|(_, k)| k).collect();
+        self.prompt.hits = hits.into_iter().take(8).map(|(_, k)| k).collect();
     }
 
     /// The answer to a step's question: the match picked with the arrows, else the text as
     /// typed when it reads, else the best match.
     fn answer(&self, what: Ask) -> String {
-        let typed = self.formula_input.trim().to_string();
-        if let Some(i) = self.prompt_hit {
-            if let Some(h) = self.prompt_hits.get(i) {
+        let typed = self.prompt.input.trim().to_string();
+        if let Some(i) = self.prompt.pick {
+            if let Some(h) = self.prompt.hits.get(i) {
                 return h.clone();
             }
         }
@@ -940,18 +978,19 @@ impl App {
         if reads || typed.is_empty() {
             return typed;
         }
-        self.prompt_hits.first().cloned().unwrap_or(typed)
+        self.prompt.hits.first().cloned().unwrap_or(typed)
     }
 
     fn submit_answer(&mut self, what: Ask) {
         let text = self.answer(what);
         let on = self
+            .prompt
             .asking_for
             .take()
             .and_then(|(_, s)| s)
             .unwrap_or_default();
         self.mode = Mode::Normal;
-        self.prompt_hits.clear();
+        self.prompt.hits.clear();
         if text.is_empty() && what != Ask::Base {
             return;
         }
@@ -962,7 +1001,7 @@ impl App {
                 // onto the selected X group if one is selected, else the usual halide
                 let leaving = self
                     .selected_slot()
-                    .and_then(|s| self.complex.group(s))
+                    .and_then(|s| self.editor.complex.group(s))
                     .filter(|b| b.mode().class.x == 1)
                     .map(|b| b.ligand.key.clone());
                 Step::Transmetalation {
@@ -1011,15 +1050,18 @@ impl App {
 
     /// Preview `seed` with the other ways it could go ready for `n`.
     fn pend_choices(&mut self, seed: Step) {
-        let found = crate::chem::steps::choices(&self.complex, &seed, self.cat.as_ref());
+        let found = crate::chem::steps::choices(&self.editor.complex, &seed, self.cat.as_ref());
         let first = found.first().cloned();
         self.set_pending(Pending::Step(first.unwrap_or(seed)));
-        self.choices = found;
+        self.editor.choices = found;
     }
 
     /// A step on the selected ligand, with its choices.
     fn pend_with_choices(&mut self, make: impl Fn(String) -> Step) {
-        match self.selected_slot().and_then(|s| self.complex.group(s)) {
+        match self
+            .selected_slot()
+            .and_then(|s| self.editor.complex.group(s))
+        {
             Some(b) => {
                 let key = b.ligand.key.clone();
                 self.pend_choices(make(key));
@@ -1030,14 +1072,14 @@ impl App {
 
     /// Show the next way the step in the preview could go.
     fn next_choice(&mut self) {
-        if self.choices.len() < 2 {
+        if self.editor.choices.len() < 2 {
             self.notice("this step has no other partner or product here", true);
             return;
         }
-        let next = (self.choice + 1) % self.choices.len();
-        let step = self.choices[next].clone();
-        self.pending = Pending::Step(step);
-        self.choice = next;
+        let next = (self.editor.choice + 1) % self.editor.choices.len();
+        let step = self.editor.choices[next].clone();
+        self.editor.pending = Pending::Step(step);
+        self.editor.choice = next;
         self.refresh_preview();
     }
 
@@ -1051,7 +1093,7 @@ impl App {
             return;
         };
         match screen::screen(
-            &self.complex,
+            &self.editor.complex,
             &[slot],
             self.cat.ligands(),
             &self.screen.constraints,
@@ -1079,29 +1121,31 @@ impl App {
         else {
             return;
         };
-        self.query.clear();
-        self.family = None;
-        self.class = None;
+        self.catalogue.query.clear();
+        self.catalogue.family = None;
+        self.catalogue.class = None;
         self.refilter(false);
         if let Some(i) = self
+            .catalogue
             .hits
             .iter()
             .position(|&h| self.cat.ligands()[h].key == key)
         {
-            self.hit = i;
+            self.catalogue.hit = i;
         }
         self.mode = Mode::Normal;
-        self.pending = Pending::Swap;
+        self.editor.pending = Pending::Swap;
         self.refresh_preview();
     }
 
     fn open_tree(&mut self) {
-        let Some(s) = &self.session else {
+        let Some(s) = &self.log.session else {
             self.notice("this planner keeps no session (no data directory)", true);
             return;
         };
         let tree = s.tree();
-        self.tree_row = self
+        self.log.row = self
+            .log
             .variant
             .and_then(|v| tree.iter().position(|(_, x)| x.id == v))
             .unwrap_or(0);
@@ -1110,8 +1154,8 @@ impl App {
 
     /// The variant under the tree cursor.
     pub fn tree_selection(&self) -> Option<u64> {
-        let s = self.session.as_ref()?;
-        s.tree().get(self.tree_row).map(|(_, v)| v.id)
+        let s = self.log.session.as_ref()?;
+        s.tree().get(self.log.row).map(|(_, v)| v.id)
     }
 
     fn jump_to_variant(&mut self) {
@@ -1119,6 +1163,7 @@ impl App {
             return;
         };
         let Some(formula) = self
+            .log
             .session
             .as_ref()
             .and_then(|s| s.get(id))
@@ -1128,12 +1173,14 @@ impl App {
         };
         match parse(&formula, self.cat.as_ref()) {
             Ok(c) => {
-                self.undo.push((self.complex.clone(), self.variant));
-                self.redo.clear();
+                self.editor
+                    .undo
+                    .push((self.editor.complex.clone(), self.log.variant));
+                self.editor.redo.clear();
                 self.set_complex(c);
-                self.variant = Some(id);
+                self.log.variant = Some(id);
                 self.mode = Mode::Normal;
-                self.pending = Pending::Swap;
+                self.editor.pending = Pending::Swap;
                 self.refresh_preview();
                 self.notice(
                     &format!("at variant {id}; a change committed now starts a branch from it"),
@@ -1145,7 +1192,7 @@ impl App {
     }
 
     fn submit_bookmark(&mut self) {
-        let name = self.formula_input.trim().to_string();
+        let name = self.prompt.input.trim().to_string();
         self.mode = Mode::Tree;
         let Some(id) = self.tree_selection() else {
             return;
@@ -1153,7 +1200,7 @@ impl App {
         if name.is_empty() {
             return;
         }
-        if self.session.is_some() {
+        if self.log.session.is_some() {
             self.effects.push(Effect::Bookmark {
                 record: crate::session::Session::bookmark_record(id, &name),
             });
@@ -1163,7 +1210,7 @@ impl App {
     fn open_compare(&mut self) {
         match self.tree_selection() {
             Some(id) => {
-                self.compare = Some(id);
+                self.log.compare = Some(id);
                 self.mode = Mode::Compare;
             }
             None => self.notice("no variant selected", true),
@@ -1172,7 +1219,7 @@ impl App {
 
     /// Write the session as a Markdown table next to the session logs.
     fn export(&mut self) {
-        let Some(s) = &self.session else {
+        let Some(s) = &self.log.session else {
             self.notice("this planner keeps no session to export", true);
             return;
         };
@@ -1180,6 +1227,7 @@ impl App {
         let path = s.path.with_extension("md");
         // the cycle the working variant is on (or its path), as a figure beside the table
         let figure = self
+            .log
             .variant
             .map(|v| crate::session::figure::svg(s, &crate::session::figure::cycle_ids(s, v)));
         let svg_path = s.path.with_extension("svg");
@@ -1200,7 +1248,7 @@ impl App {
     }
 
     fn submit_formula(&mut self) {
-        let text = self.formula_input.trim().to_string();
+        let text = self.prompt.input.trim().to_string();
         if text.is_empty() {
             self.mode = Mode::Normal;
             return;
@@ -1211,10 +1259,10 @@ impl App {
                 self.notice(&why, true);
             }
             Ok(c) => {
-                self.row = 0;
-                self.title = text.clone();
+                self.editor.row = 0;
+                self.editor.title = text.clone();
                 self.mode = Mode::Normal;
-                self.pending = Pending::Swap;
+                self.editor.pending = Pending::Swap;
                 self.advance(c, &format!("typed {text}"), crate::session::Change::Edit);
                 self.refresh_preview();
             }
@@ -1226,25 +1274,25 @@ impl App {
     /// Filter the catalogue for the query and filters; `narrow` reuses the previous hits when
     /// the query only grew.
     fn refilter(&mut self, narrow: bool) {
-        let selected = self.hits.get(self.hit).copied();
-        let family = self.family;
-        let class = self.class.and_then(|c| CbcClass::parse(c).ok());
+        let selected = self.catalogue.hits.get(self.catalogue.hit).copied();
+        let family = self.catalogue.family;
+        let class = self.catalogue.class.and_then(|c| CbcClass::parse(c).ok());
         let keep = |l: &LigandDef| {
             family.is_none_or(|f| l.family == f)
                 && class.is_none_or(|c| l.modes.iter().any(|m| m.class == c))
         };
-        let previous = std::mem::take(&mut self.hits);
+        let previous = std::mem::take(&mut self.catalogue.hits);
         let within = narrow.then_some(previous.as_slice());
-        self.hits = self
+        self.catalogue.hits = self
             .cat
-            .filter(&self.query, keep, within)
+            .filter(&self.catalogue.query, keep, within)
             .into_iter()
             .map(|(i, _)| i)
             .collect();
         // keep the same entry selected if it is still there, else the best hit
-        self.hit = selected
-            .and_then(|s| self.hits.iter().position(|&h| h == s))
-            .filter(|_| self.query.is_empty())
+        self.catalogue.hit = selected
+            .and_then(|s| self.catalogue.hits.iter().position(|&h| h == s))
+            .filter(|_| self.catalogue.query.is_empty())
             .unwrap_or(0);
         self.refresh_preview();
     }

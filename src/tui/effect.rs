@@ -42,7 +42,7 @@ pub fn perform(session: Option<&mut Session>, effect: &Effect) -> Result<(), Str
 /// Carry out the effects of one action in order and report each outcome to the App.
 pub fn run(app: &mut super::App, effects: Vec<Effect>) {
     for e in effects {
-        let outcome = perform(app.session.as_mut(), &e);
+        let outcome = perform(app.log.session.as_mut(), &e);
         app.settle(e, outcome);
     }
 }

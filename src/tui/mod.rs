@@ -60,8 +60,8 @@ pub fn run(
 ) -> anyhow::Result<u8> {
     let theme = Theme::from_env();
     let mut app = App::new(cat, complex, title, ascii);
-    app.session = session;
-    app.variant = variant;
+    app.log.session = session;
+    app.log.variant = variant;
     watchdogs().context("installing signal handlers")?;
     let mut term = ratatui::try_init()
         .context("nonet's planner needs a terminal; for scripts use `nonet count` (see --help)")?;

@@ -24,15 +24,15 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
     let query_line = if searching {
         Line::from(vec![
             Span::styled("/ ", t.key()),
-            Span::raw(app.query.clone()),
+            Span::raw(app.catalogue.query.clone()),
             Span::styled("_", t.key()),
         ])
-    } else if app.query.is_empty() {
+    } else if app.catalogue.query.is_empty() {
         Line::styled("/ to search names, formulas, aliases", t.dim())
     } else {
         Line::from(vec![
             Span::styled("/ ", t.key()),
-            Span::raw(app.query.clone()),
+            Span::raw(app.catalogue.query.clone()),
         ])
     };
     lines.push(query_line);
@@ -41,20 +41,20 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
             app,
             &format!(
                 "family {} · class {} · {} of {}",
-                app.family.unwrap_or("all"),
-                app.class.unwrap_or("all"),
-                app.hits.len(),
+                app.catalogue.family.unwrap_or("all"),
+                app.catalogue.class.unwrap_or("all"),
+                app.catalogue.hits.len(),
                 app.cat.len()
             ),
         ),
         t.dim(),
     ));
     let room = (inner.height as usize).saturating_sub(lines.len());
-    let first = app.hit.saturating_sub(room.saturating_sub(1));
+    let first = app.catalogue.hit.saturating_sub(room.saturating_sub(1));
     let width = inner.width as usize;
-    for (i, &idx) in app.hits.iter().enumerate().skip(first).take(room) {
+    for (i, &idx) in app.catalogue.hits.iter().enumerate().skip(first).take(room) {
         let l = &app.cat.ligands()[idx];
-        let selected = i == app.hit;
+        let selected = i == app.catalogue.hit;
         let base = if selected {
             t.selected(focused)
         } else {
@@ -72,10 +72,10 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
         let mut spans = vec![Span::styled(format!("{marker} "), base)];
         // the key with its matched letters marked
         let key = plain(app, &l.key);
-        let hits = if app.query.is_empty() {
+        let hits = if app.catalogue.query.is_empty() {
             Vec::new()
         } else {
-            app.cat.match_positions(&key, &app.query)
+            app.cat.match_positions(&key, &app.catalogue.query)
         };
         let mut key_len = 0;
         for (ci, ch) in key.chars().enumerate() {
@@ -108,7 +108,7 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
         spans.push(Span::styled(rest, base));
         lines.push(Line::from(spans));
     }
-    if app.hits.is_empty() {
+    if app.catalogue.hits.is_empty() {
         lines.push(Line::styled(
             "  nothing matches: Bksp or 0 clears",
             t.warn(),

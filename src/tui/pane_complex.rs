@@ -26,12 +26,12 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, theme: &super::theme::Theme)
     let mut top: Vec<Line> = Vec::new();
     // the current complex first; what the session started from below it, when there is room
     top.push(Line::styled(
-        plain(app, &app.complex.formula(app.ascii)),
+        plain(app, &app.editor.complex.formula(app.ascii)),
         t.title(),
     ));
     if (inner.height as usize) > needed {
         top.push(Line::styled(
-            plain(app, &format!("from {}", app.title)),
+            plain(app, &format!("from {}", app.editor.title)),
             t.dim(),
         ));
     }
@@ -46,10 +46,10 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, theme: &super::theme::Theme)
     let room = (inner.height as usize)
         .saturating_sub(top.len() + summary.len())
         .max(1);
-    let many = app.complex.metal_count() > 1;
-    let first = app.row.saturating_sub(room.saturating_sub(1));
+    let many = app.editor.complex.metal_count() > 1;
+    let first = app.editor.row.saturating_sub(room.saturating_sub(1));
     for (i, slot) in slots.iter().enumerate().skip(first).take(room) {
-        let Some(group) = app.complex.group(*slot) else {
+        let Some(group) = app.editor.complex.group(*slot) else {
             continue;
         };
         let (metal, pos) = match slot.place {
@@ -57,6 +57,7 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, theme: &super::theme::Theme)
             Place::Shared => (0, own_len(app, 0) + slot.index),
         };
         let contribution = app
+            .editor
             .report
             .metals
             .get(metal)
@@ -68,7 +69,9 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, theme: &super::theme::Theme)
         }
         if many {
             let tag = match slot.place {
-                Place::Site(m) => format!("{}{} ", app.complex.sites[m].element.symbol, m + 1),
+                Place::Site(m) => {
+                    format!("{}{} ", app.editor.complex.sites[m].element.symbol, m + 1)
+                }
                 Place::Shared => "all ".to_string(),
             };
             name = tag + &name;
@@ -76,7 +79,7 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, theme: &super::theme::Theme)
         let (neutral, ionic) = contribution.map_or((String::new(), String::new()), |c| {
             (c.neutral.to_string(), c.ionic.to_string())
         });
-        let marker = marker(app, i == app.row);
+        let marker = marker(app, i == app.editor.row);
         let text = format!(
             "{marker} {:<11}{:<7}{:<6}{:>4}{:>6}",
             truncate(&name, 11),
@@ -85,7 +88,7 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, theme: &super::theme::Theme)
             neutral,
             ionic
         );
-        let style = if i == app.row {
+        let style = if i == app.editor.row {
             t.selected(focused)
         } else {
             t.text()
@@ -100,7 +103,11 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, theme: &super::theme::Theme)
 }
 
 fn own_len(app: &App, metal: usize) -> usize {
-    app.complex.sites.get(metal).map_or(0, |s| s.ligands.len())
+    app.editor
+        .complex
+        .sites
+        .get(metal)
+        .map_or(0, |s| s.ligands.len())
 }
 
 fn truncate(s: &str, n: usize) -> String {
@@ -115,7 +122,7 @@ fn truncate(s: &str, n: usize) -> String {
 
 /// Totals, oxidation state, d count, saturation and spin of the first metal (and the cluster).
 fn summary_lines<'a>(app: &App, t: &super::theme::Theme) -> Vec<Line<'a>> {
-    let r = &app.report;
+    let r = &app.editor.report;
     let mut out = Vec::new();
     let Some(m) = r.metals.first() else {
         return out;

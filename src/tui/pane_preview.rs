@@ -16,7 +16,7 @@ use crate::chem::spin::spin_only_moment;
 use crate::chem::sterics::{CROWDED, OVERFULL};
 
 pub fn title(app: &App) -> &'static str {
-    match &app.pending {
+    match &app.editor.pending {
         Pending::Step(_) => "If this step happens",
         Pending::Swap => "If you swap",
         Pending::Add => "If you add",
@@ -35,11 +35,11 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
     let b = block(app, title(app), false, t);
     let inner = b.inner(area);
     f.render_widget(b, area);
-    let lines = match &app.preview {
+    let lines = match &app.editor.preview {
         None => vec![Line::styled("nothing to preview", t.dim())],
         Some(Err(why)) => {
             let mut l = vec![Line::styled(plain(app, why), t.warn())];
-            if app.pending == Pending::Swap {
+            if app.editor.pending == Pending::Swap {
                 l.push(Line::raw(""));
                 l.push(Line::styled(
                     "pick a ligand on the left and one in the catalogue",
@@ -63,9 +63,9 @@ fn render_matches(f: &mut Frame, app: &App, area: Rect, t: &Theme, what: super::
         "↑/↓ picks one; Enter takes the text as typed when it reads, else the first match",
         t.dim(),
     )];
-    if app.prompt_hits.is_empty() {
+    if app.prompt.hits.is_empty() {
         lines.push(Line::styled(
-            if app.formula_input.trim().is_empty() {
+            if app.prompt.input.trim().is_empty() {
                 "type a name, a formula or SMILES"
             } else {
                 "nothing in the catalogue matches; the text is read as it stands"
@@ -73,8 +73,8 @@ fn render_matches(f: &mut Frame, app: &App, area: Rect, t: &Theme, what: super::
             t.dim(),
         ));
     }
-    for (i, key) in app.prompt_hits.iter().enumerate() {
-        let selected = app.prompt_hit == Some(i);
+    for (i, key) in app.prompt.hits.iter().enumerate() {
+        let selected = app.prompt.pick == Some(i);
         let detail = if what.is_ligand() {
             app.cat.get(key).map(|l| l.name.clone()).unwrap_or_default()
         } else {
@@ -125,7 +125,7 @@ fn sat_word(m: &MetalReport) -> String {
 fn lines<'a>(app: &App, p: &Preview, t: &Theme) -> Vec<Line<'a>> {
     let mut out = Vec::new();
     let what = match &p.change {
-        crate::chem::preview::Change::Edit(e) => super::app::propose(e, &app.complex),
+        crate::chem::preview::Change::Edit(e) => super::app::propose(e, &app.editor.complex),
         crate::chem::preview::Change::Step(s) => s.to_string(),
     };
     let (Some(a), Some(b)) = (

@@ -25,7 +25,7 @@ fn popup(area: Rect) -> Rect {
 pub fn render_tree(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
     let area = popup(area);
     f.render_widget(Clear, area);
-    let Some(s) = &app.session else {
+    let Some(s) = &app.log.session else {
         return;
     };
     let title = format!("Session {} ({} variants)", s.name, s.variants.len());
@@ -35,11 +35,11 @@ pub fn render_tree(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
     let rows = tree_rows(s, app.ascii);
     let room = inner.height as usize;
     let width = inner.width as usize;
-    let first = app.tree_row.saturating_sub(room.saturating_sub(1));
+    let first = app.log.row.saturating_sub(room.saturating_sub(1));
     let mut lines = Vec::new();
     for (i, (prefix, v)) in rows.iter().enumerate().skip(first).take(room) {
-        let selected = i == app.tree_row;
-        let working = app.variant == Some(v.id);
+        let selected = i == app.log.row;
+        let working = app.log.variant == Some(v.id);
         let c = &v.counts;
         let os = match c.oxidation_state.as_f64() {
             Some(x) if x > 0.0 => format!("+{}", c.oxidation_state),
@@ -207,7 +207,7 @@ fn summary<'a>(label: String, formula: &str, r: Option<&Report>, t: &Theme) -> V
 pub fn render_compare(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
     let area = popup(area);
     f.render_widget(Clear, area);
-    let (Some(s), Some(id)) = (&app.session, app.compare) else {
+    let (Some(s), Some(id)) = (&app.log.session, app.log.compare) else {
         return;
     };
     let b = block(app, "Two variants side by side (Esc: back)", true, t);
@@ -224,10 +224,15 @@ pub fn render_compare(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
     });
     let formula = other.map_or(String::new(), |v| v.formula.clone());
     let left_lines = summary(label, &formula, other_report.as_ref(), t);
-    let here = app.variant.map_or("working complex".to_string(), |v| {
+    let here = app.log.variant.map_or("working complex".to_string(), |v| {
         format!("working complex (variant {v})")
     });
-    let right_lines = summary(here, &app.complex.formula(app.ascii), Some(&app.report), t);
+    let right_lines = summary(
+        here,
+        &app.editor.complex.formula(app.ascii),
+        Some(&app.editor.report),
+        t,
+    );
     f.render_widget(
         Paragraph::new(plain_lines(app, left_lines)).wrap(Wrap { trim: false }),
         left,
@@ -244,7 +249,7 @@ pub fn render_screen(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
     f.render_widget(Clear, area);
     let leaving = app
         .selected_slot()
-        .and_then(|s| app.complex.group(s))
+        .and_then(|s| app.editor.complex.group(s))
         .map_or("?".to_string(), |b| b.ligand.key.clone());
     let title = format!("Swaps for {leaving}, best first");
     let b = block(app, &title, true, t);
@@ -341,7 +346,7 @@ pub fn render_screen(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
 pub fn render_cycle(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
     let area = popup(area);
     f.render_widget(Clear, area);
-    let (Some(s), Some(end)) = (&app.session, app.variant) else {
+    let (Some(s), Some(end)) = (&app.log.session, app.log.variant) else {
         let b = block(app, "Cycle (? or Esc closes)", true, t);
         f.render_widget(
             Paragraph::new("this planner keeps no session, so it has no path to draw").block(b),
@@ -430,7 +435,10 @@ pub fn render_cycle(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
             t.title(),
         ));
     }
-    let scroll = app.cycle_scroll.min((lines.len() as u16).saturating_sub(1));
+    let scroll = app
+        .log
+        .cycle_scroll
+        .min((lines.len() as u16).saturating_sub(1));
     f.render_widget(
         Paragraph::new(plain_lines(app, lines))
             .wrap(Wrap { trim: false })

@@ -131,7 +131,7 @@ fn render_notice(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
     let line = if let Mode::Line(kind) = app.mode {
         Line::from(vec![
             Span::styled(format!("{}: ", kind.prompt()), t.key()),
-            Span::raw(plain(app, &app.formula_input)),
+            Span::raw(plain(app, &app.prompt.input)),
             Span::styled("_", t.key()),
             Span::styled(
                 app.notice

@@ -63,8 +63,8 @@ pub fn planner(formula: &str, tag: &str) -> (App, std::path::PathBuf) {
         )
         .expect("root");
     let mut app = App::new(cat, c, "test".into(), false);
-    app.session = Some(s);
-    app.variant = Some(root);
+    app.log.session = Some(s);
+    app.log.variant = Some(root);
     (app, dir)
 }
 
@@ -83,8 +83,8 @@ pub fn planner_in_memory(formula: &str) -> App {
         )
         .expect("root");
     let mut app = App::new(cat, c, "test".into(), false);
-    app.session = Some(s);
-    app.variant = Some(root);
+    app.log.session = Some(s);
+    app.log.variant = Some(root);
     app
 }
 
@@ -92,6 +92,11 @@ pub fn planner_in_memory(formula: &str) -> App {
 pub fn row_of(app: &App, key: &str) -> usize {
     app.slots()
         .iter()
-        .position(|s| app.complex.group(*s).is_some_and(|b| b.ligand.key == key))
-        .unwrap_or_else(|| panic!("no {key} row in {}", app.complex.formula(false)))
+        .position(|s| {
+            app.editor
+                .complex
+                .group(*s)
+                .is_some_and(|b| b.ligand.key == key)
+        })
+        .unwrap_or_else(|| panic!("no {key} row in {}", app.editor.complex.formula(false)))
 }

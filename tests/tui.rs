@@ -342,3 +342,20 @@ fn snapshot_ascii_mode() {
     assert!(s.is_ascii());
     insta::assert_snapshot!("ascii_120x40", s);
 }
+
+#[test]
+fn snapshot_cycle_view() {
+    // Wilkinson hydrogenation planned from the keys, closed, then the cycle view (`y`)
+    let mut app = common::keys::planner_in_memory("RhCl(PPh3)3");
+    common::keys::press(
+        &mut app,
+        "-<enter>OH2<enter><enter>+C2H4<enter><enter><enter><enter>",
+    );
+    press(&mut app, "y");
+    assert_eq!(app.mode, Mode::Cycle);
+    let small = text(&screen(&app, 80, 24, COLOR));
+    // the words that mark the dips, not colour alone
+    assert!(small.contains("14 e"), "{small}");
+    insta::assert_snapshot!("cycle_80x24", small);
+    insta::assert_snapshot!("cycle_120x40", text(&screen(&app, 120, 40, COLOR)));
+}

@@ -1,8 +1,11 @@
 #!/usr/bin/env bash
 # Drive the real planner in tmux, capture the screens with their colours, and turn them into
 # PNG images for the README: ANSI -> HTML (ansi2html.py) -> headless Chromium screenshot.
-# Needs tmux and Debian's chromium (apt-get install tmux chromium fonts-dejavu-core).
-# Usage: screenshots/make.sh
+# The cycle figure comes from `nonet export --format svg`, converted with librsvg's
+# rsvg-convert.
+# Needs tmux, Debian's chromium and librsvg2-bin (apt-get install tmux chromium
+# fonts-dejavu-core librsvg2-bin).
+# Usage: screenshots/make.sh [figures]   (figures: only the cycle figure, no browser needed)
 set -euo pipefail
 cd "$(dirname "$0")/.."
 cargo build --release --quiet
@@ -11,6 +14,25 @@ work=$(mktemp -d)
 trap 'rm -rf "$work"' EXIT
 export NONET_CONFIG_DIR="$work/config"
 export NONET_DATA_DIR="$work/data"
+
+# figure NAME START STEPS...: plan a cycle from the command line into a session, export the
+# figure and convert it to PNG
+figure() {
+  local name=$1 start=$2
+  shift 2
+  target/release/nonet step --session "$name" "$start" "$@" > /dev/null
+  target/release/nonet export "$name" --format svg -o "$work/$name.svg"
+  cp "$work/$name.svg" "$out/$name.svg"
+  rsvg-convert --background-color=white -o "$out/$name.png" "$work/$name.svg"
+  echo "wrote $out/$name.png"
+}
+
+figure suzuki_cycle 'Pd(PPh3)2' 'oxidative-addition PhBr' 'transmetalation PhB(OH)2' \
+  'reductive-elimination Ph Ph'
+if [ "${1:-}" = figures ]; then
+  exit 0
+fi
+
 chrome=$(command -v chromium || command -v chromium-browser)
 
 # scene NAME COLS ROWS KEYS...: start the planner, type the keys, capture the screen

@@ -156,40 +156,12 @@ impl Session {
     /// Rebuild the tree from records in log order.
     pub fn replay(&mut self, records: Vec<Record>) {
         for r in records {
-            match r {
-                Record::Variant {
-                    id,
-                    parent,
-                    time,
-                    action,
-                    formula,
-                    counts,
-                    made_by,
-                    enters,
-                    leaves,
-                    ..
-                } => {
-                    if self.get(id).is_some() {
-                        continue; // a duplicate id cannot come from this writer; keep the first
-                    }
-                    self.index.insert(id, self.variants.len());
-                    self.variants.push(Variant {
-                        made: Made::read(made_by.as_deref(), parent, &action),
-                        id,
-                        parent,
-                        time,
-                        action,
-                        formula,
-                        counts,
-                        enters,
-                        leaves,
-                    })
-                }
-                Record::Bookmark { id, name, .. } => {
-                    self.bookmarks.retain(|(i, _)| *i != id);
-                    self.bookmarks.push((id, name));
+            if let Record::Variant { id, .. } = &r {
+                if self.get(*id).is_some() {
+                    continue; // a duplicate id cannot come from this writer; keep the first
                 }
             }
+            self.admit(r);
         }
     }
 
@@ -233,7 +205,7 @@ impl Session {
     ) -> Result<u64, SessionError> {
         let record = self.prepare(parent, action, complex, report, change);
         self.write(&record)?;
-        Ok(self.admit(&record))
+        Ok(self.admit(record))
     }
 
     /// The record a committed change will be, with the next free id; nothing is written and
@@ -266,8 +238,9 @@ impl Session {
         }
     }
 
-    /// Take a record into the tree (a variant, or a bookmark); gives the variant's id.
-    pub fn admit(&mut self, record: &Record) -> u64 {
+    /// Take a record into the tree (a variant, or a bookmark); gives the variant's id. A
+    /// variant with an id already in the tree replaces it.
+    pub fn admit(&mut self, record: Record) -> u64 {
         match record {
             Record::Variant {
                 id,
@@ -282,29 +255,29 @@ impl Session {
                 ..
             } => {
                 let variant = Variant {
-                    id: *id,
-                    parent: *parent,
-                    time: time.clone(),
-                    action: action.clone(),
-                    formula: formula.clone(),
-                    counts: counts.clone(),
-                    made: Made::read(made_by.as_deref(), *parent, action),
-                    enters: enters.clone(),
-                    leaves: leaves.clone(),
+                    made: Made::read(made_by.as_deref(), parent, &action),
+                    id,
+                    parent,
+                    time,
+                    action,
+                    formula,
+                    counts,
+                    enters,
+                    leaves,
                 };
-                match self.index.get(id) {
+                match self.index.get(&id) {
                     Some(&at) => self.variants[at] = variant,
                     None => {
-                        self.index.insert(*id, self.variants.len());
+                        self.index.insert(id, self.variants.len());
                         self.variants.push(variant);
                     }
                 }
-                *id
+                id
             }
             Record::Bookmark { id, name, .. } => {
-                self.bookmarks.retain(|(i, _)| i != id);
-                self.bookmarks.push((*id, name.clone()));
-                *id
+                self.bookmarks.retain(|(i, _)| *i != id);
+                self.bookmarks.push((id, name));
+                id
             }
         }
     }
@@ -334,7 +307,7 @@ impl Session {
     pub fn bookmark(&mut self, id: u64, name: &str) -> Result<(), SessionError> {
         let record = Session::bookmark_record(id, name);
         self.write(&record)?;
-        self.admit(&record);
+        self.admit(record);
         Ok(())
     }
 

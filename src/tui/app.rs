@@ -342,7 +342,7 @@ impl App {
         match (effect, outcome) {
             (Effect::Record { record, label }, Ok(())) => {
                 if let Some(s) = self.log.session.as_mut() {
-                    let id = s.admit(&record);
+                    let id = s.admit(record);
                     self.log.variant = Some(id);
                     self.notice(&format!("done: {label} (variant {id})"), false);
                 }
@@ -352,7 +352,7 @@ impl App {
             }
             (Effect::Bookmark { record }, Ok(())) => {
                 if let Some(s) = self.log.session.as_mut() {
-                    let id = s.admit(&record);
+                    let id = s.admit(record);
                     let name = s.bookmark_of(id).unwrap_or_default().to_string();
                     self.notice(&format!("variant {id} bookmarked as '{name}'"), false);
                 }

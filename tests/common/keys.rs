@@ -50,29 +50,19 @@ pub fn press(app: &mut App, keys: &str) -> usize {
 pub fn planner(formula: &str, tag: &str) -> (App, std::path::PathBuf) {
     let dir = std::env::temp_dir().join(format!("nonet-tui-{tag}-{}", std::process::id()));
     let _ = std::fs::remove_dir_all(&dir);
-    let cat = Arc::new(Catalogue::bundled());
-    let c = parse(formula, cat.as_ref()).expect("formula");
-    let mut s = Session::open(&dir, "t").expect("session");
-    let root = s
-        .commit(
-            None,
-            "start",
-            &c,
-            &nonet::chem::count(&c),
-            nonet::session::Change::Start,
-        )
-        .expect("root");
-    let mut app = App::new(cat, c, "test".into(), false);
-    app.log.session = Some(s);
-    app.log.variant = Some(root);
-    (app, dir)
+    let s = Session::open(&dir, "t").expect("session");
+    (started(formula, s), dir)
 }
 
 /// The planner on `formula` with a session kept in memory: nothing touches a disk.
 pub fn planner_in_memory(formula: &str) -> App {
+    started(formula, Session::in_memory("t"))
+}
+
+/// The planner on `formula`, its start recorded as the root of `s`.
+fn started(formula: &str, mut s: Session) -> App {
     let cat = Arc::new(Catalogue::bundled());
     let c = parse(formula, cat.as_ref()).expect("formula");
-    let mut s = Session::in_memory("t");
     let root = s
         .commit(
             None,

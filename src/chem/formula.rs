@@ -59,19 +59,29 @@ pub struct ParseError {
 impl ParseError {
     /// The error with the input underneath and a caret under the problem.
     pub fn render(&self) -> String {
+        self.render_with(|t| t.to_string())
+    }
+
+    /// The message with the input shown through `show` (an ASCII spelling, escaped control
+    /// characters) and the caret under the same characters of the shown text.
+    pub fn render_with(&self, show: impl Fn(&str) -> String) -> String {
+        let chars: Vec<char> = self.input.chars().collect();
+        let cut = |n: usize| -> String { chars[..n.min(chars.len())].iter().collect() };
+        let before = show(&cut(self.column)).chars().count();
+        let through = show(&cut(self.column + self.width.max(1))).chars().count();
         let mut out = format!(
             "{} (column {})\n  {}\n  ",
-            self.message,
+            show(&self.message),
             self.column + 1,
-            self.input
+            show(&self.input)
         );
-        out.push_str(&" ".repeat(self.column));
-        out.push_str(&"^".repeat(self.width.max(1)));
+        out.push_str(&" ".repeat(before));
+        out.push_str(&"^".repeat(through.saturating_sub(before).max(1)));
         if let Some(s) = &self.suggestion {
-            out.push_str(&format!("\n  did you mean '{s}'?"));
+            out.push_str(&format!("\n  did you mean '{}'?", show(s)));
         }
         if let Some(h) = &self.hint {
-            out.push_str(&format!("\n  {h}"));
+            out.push_str(&format!("\n  {}", show(h)));
         }
         out
     }

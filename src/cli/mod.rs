@@ -1,19 +1,22 @@
 //! The command line: clap definitions at the edge, plain requests inside, text and JSON writers.
 
+mod batch;
+mod diag;
 mod json;
 mod jsonw;
 mod screen;
 mod sterics;
 mod text;
 
-use std::io::{self, BufRead, BufWriter, Write};
+use std::io::{self, BufWriter, Write};
 use std::path::PathBuf;
 
 use anyhow::Context;
-use clap::{Parser, Subcommand};
+use clap::{Args, Parser, Subcommand, ValueEnum};
 
 use crate::catalogue::{self, Catalogue};
 use crate::chem;
+use crate::chem::screen::{Rank, Shard};
 
 /// Exit statuses, part of the contract with scripts.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -52,8 +55,8 @@ pub struct Cli {
     #[arg(long, global = true)]
     pub ascii: bool,
 
-    /// Keep sessions under DIR instead of $NONET_DATA_DIR or the platform data directory.
-    #[arg(long, global = true, value_name = "DIR")]
+    /// Keep sessions under DIR instead of the platform data directory.
+    #[arg(long, global = true, value_name = "DIR", env = "NONET_DATA_DIR")]
     pub data_dir: Option<PathBuf>,
 
     #[command(subcommand)]
@@ -64,180 +67,321 @@ pub struct Cli {
 pub enum Command {
     /// Open the planner on FORMULA (or on the demo complex): the working complex, the ligand
     /// catalogue and a preview of each swap or edit before it is committed.
-    Plan {
-        /// The complex to start from, e.g. 'IrCl(CO)(PPh3)2'.
-        #[arg(value_name = "FORMULA")]
-        formula: Option<String>,
-        /// Open (or, with FORMULA, create) this session instead of starting a new one.
-        #[arg(long, value_name = "NAME")]
-        session: Option<String>,
-    },
+    Plan(PlanArgs),
     /// List the planning sessions, most recent first.
     Sessions {
         /// One JSON object per session per line.
         #[arg(long)]
         json: bool,
     },
-    /// Write a session out as a Markdown table, JSON or CSV (to standard output).
-    Export {
-        /// The session's name (see `nonet sessions`).
-        #[arg(value_name = "SESSION")]
-        session: String,
-        /// md, json, csv, or svg (the catalytic cycle as a figure: the last closed cycle, or
-        /// the one --path closes).
-        #[arg(long, default_value = "md", value_name = "FORMAT")]
-        format: String,
-        /// Only the path from the start to this variant (an id or a bookmark name).
-        #[arg(long, value_name = "VARIANT")]
-        path: Option<String>,
-        /// Write to FILE instead of standard output.
-        #[arg(long, short, value_name = "FILE")]
-        output: Option<PathBuf>,
-    },
+    /// Write a session out as a Markdown table, JSON, CSV or an SVG figure of its cycle.
+    Export(ExportArgs),
     /// Count electrons under both models, with oxidation state, d count, CBC class, saturation
     /// and spin.
-    Count {
-        /// One JSON object per formula per line (schema 1).
-        #[arg(long)]
-        json: bool,
-        /// Read formulas from FILE, one per line ('-' for standard input; '#' starts a comment).
-        #[arg(long, value_name = "FILE")]
-        batch: Option<PathBuf>,
-        /// Formulas to count.
-        #[arg(value_name = "FORMULA")]
-        formulas: Vec<String>,
-    },
+    Count(CountArgs),
     /// Take elementary steps from FORMULA, one after another, and report each product.
-    Step {
-        /// One JSON object per step per line (the count's fields plus step, product, changes).
-        #[arg(long)]
-        json: bool,
-        /// The complex to start from.
-        #[arg(value_name = "FORMULA")]
-        formula: String,
-        /// Steps such as "oxidative-addition H2", "migratory-insertion CO CH3",
-        /// "ring-slip Cp 3", "oxidation" (one quoted argument each).
-        #[arg(value_name = "STEP", required = true)]
-        steps: Vec<String>,
-        /// Record every step, as it is taken, in this session (created if needed).
-        #[arg(long, value_name = "NAME")]
-        session: Option<String>,
-    },
+    Step(StepArgs),
     /// Rank every catalogue ligand (or pair of ligands) in place of one or two ligands of
     /// FORMULA, under constraints.
-    Screen {
-        /// The complex to start from.
-        #[arg(value_name = "FORMULA")]
-        formula: String,
-        /// A ligand of the complex to replace; give two for pairs (the same twice for two
-        /// units of one group).
-        #[arg(long = "site", value_name = "LIGAND", required = true)]
-        sites: Vec<String>,
-        /// Electron count at the metal: N or LO-HI.
-        #[arg(long, value_name = "N|LO-HI")]
-        electrons: Option<String>,
-        /// Only products at their target count (18, or 16 for square-planar d8).
-        #[arg(long)]
-        saturated: bool,
-        /// Highest crowding (sum of cone sphere fractions; 1.15 crowded, 1.35 overfull).
-        #[arg(long, value_name = "F")]
-        max_crowding: Option<f64>,
-        /// Cone angle window for entering ligands, degrees: LO-HI.
-        #[arg(long, value_name = "LO-HI")]
-        cone: Option<String>,
-        /// Tolman electronic parameter window, cm-1: LO-HI.
-        #[arg(long, value_name = "LO-HI")]
-        tep: Option<String>,
-        /// Only products predicted diamagnetic.
-        #[arg(long)]
-        diamagnetic: bool,
-        /// Only ligands of this family (repeatable).
-        #[arg(long = "family", value_name = "FAMILY")]
-        families: Vec<String>,
-        /// Leave out this family (repeatable).
-        #[arg(long = "exclude-family", value_name = "FAMILY")]
-        exclude_families: Vec<String>,
-        /// Leave out ligands with GHS hazard statements in the catalogue; ligands with no
-        /// hazard record stay in and are flagged.
-        #[arg(long)]
-        no_hazardous: bool,
-        /// electrons (nearest --electrons, else the starting count), crowding, donor (lowest
-        /// TEP) or cone.
-        #[arg(long, default_value = "electrons", value_name = "KEY")]
-        rank: String,
-        /// How many candidates to show.
-        #[arg(long, default_value_t = 20, value_name = "N")]
-        top: usize,
-        /// Run part K of N of the screen (for array jobs); outputs merge by concatenation
-        /// (ranks are per shard: sort merged JSON lines by "score").
-        #[arg(long, value_name = "K/N")]
-        shard: Option<String>,
-        /// One JSON object per candidate per line.
-        #[arg(long)]
-        json: bool,
-    },
+    Screen(ScreenArgs),
     /// Steric descriptors of a ligand from its structure (XYZ or MDL molfile/SDF V2000).
-    Sterics {
-        /// The structure file, in ångström.
-        #[arg(value_name = "FILE")]
-        file: PathBuf,
-        /// The donor atom's number in the file (needed when the file has no metal).
-        #[arg(long, value_name = "N")]
-        donor: Option<usize>,
-        /// Metal-donor distance for a placed metal, Å [default: 2.28, as Tolman used for
-        /// phosphines; 2.00 is usual for carbenes]. A metal in the file is used as it is.
-        #[arg(long, value_name = "Å")]
-        distance: Option<f64>,
-        /// Leave hydrogens out of the buried volume.
-        #[arg(long)]
-        no_hydrogens: bool,
-        /// One JSON object.
-        #[arg(long)]
-        json: bool,
-        /// Store the ligand, with its computed cone angle, in this user ligand set.
-        #[arg(long, value_name = "SET")]
-        add_to: Option<String>,
-        /// The key for --add-to (as it will be written in formulas).
-        #[arg(long, value_name = "KEY")]
-        key: Option<String>,
-        /// A name for --add-to.
-        #[arg(long, value_name = "NAME")]
-        name: Option<String>,
-        /// The CBC class of the stored ligand's binding mode.
-        #[arg(long, default_value = "L", value_name = "CLASS")]
-        class: String,
-        /// The family of the stored ligand.
-        #[arg(long, default_value = "phosphine", value_name = "FAMILY")]
-        family: String,
-    },
+    Sterics(StericsArgs),
     /// List the ligand catalogue, or search it when QUERY is given.
-    Ligands {
-        /// Words to match against keys, names, formulas and aliases.
-        #[arg(value_name = "QUERY")]
-        query: Vec<String>,
-        /// One JSON object per ligand per line.
-        #[arg(long)]
-        json: bool,
-        /// Print where user ligand sets are read from, and stop.
-        #[arg(long)]
-        paths: bool,
-        /// List the substrates and reagents steps take and give (MeI, PhB(OH)2, AgBF4, ...)
-        /// instead of ligands.
-        #[arg(long)]
-        substrates: bool,
-    },
+    Ligands(LigandsArgs),
 }
 
-/// What `count` was asked to do, free of clap types.
-pub struct CountRequest {
+#[derive(Debug, Args)]
+pub struct PlanArgs {
+    /// The complex to start from, e.g. 'IrCl(CO)(PPh3)2'.
+    #[arg(value_name = "FORMULA")]
+    pub formula: Option<String>,
+    /// Open (or, with FORMULA, create) this session instead of starting a new one.
+    #[arg(long, value_name = "NAME")]
+    pub session: Option<String>,
+}
+
+/// What `export` writes.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum ExportFormat {
+    /// A Markdown table of the tree (or the path), with closed cycles.
+    #[value(alias = "markdown")]
+    Md,
+    Json,
+    Csv,
+    /// The catalytic cycle as a figure: the first closed cycle, or the one --path closes.
+    Svg,
+}
+
+#[derive(Debug, Args)]
+pub struct ExportArgs {
+    /// The session's name (see `nonet sessions`).
+    #[arg(value_name = "SESSION")]
+    pub session: String,
+    #[arg(long, value_enum, default_value = "md", value_name = "FORMAT")]
+    pub format: ExportFormat,
+    /// Only the path from the start to this variant (an id or a bookmark name).
+    #[arg(long, value_name = "VARIANT")]
+    pub path: Option<String>,
+    /// Write to FILE instead of standard output.
+    #[arg(long, short, value_name = "FILE")]
+    pub output: Option<PathBuf>,
+}
+
+#[derive(Debug, Args)]
+pub struct CountArgs {
+    /// One JSON object per formula per line (schema 1).
+    #[arg(long)]
     pub json: bool,
-    pub ascii: bool,
+    /// Read formulas from FILE, one per line ('-' for standard input; '#' starts a comment).
+    #[arg(long, value_name = "FILE")]
     pub batch: Option<PathBuf>,
+    /// With --json, keep only these top-level fields (comma-separated, e.g.
+    /// input,electron_count,oxidation_state).
+    #[arg(long, value_delimiter = ',', value_name = "A,B,...", requires = "json")]
+    pub fields: Vec<String>,
+    /// Formulas to count.
+    #[arg(value_name = "FORMULA")]
     pub formulas: Vec<String>,
 }
 
-/// Parse arguments and run; returns the exit status.
-pub fn run<I, T>(args: I) -> anyhow::Result<Status>
+#[derive(Debug, Args)]
+pub struct StepArgs {
+    /// One JSON object per step per line (the count's fields plus step, product, changes),
+    /// then one closing line for the path.
+    #[arg(long)]
+    pub json: bool,
+    /// The complex to start from.
+    #[arg(value_name = "FORMULA")]
+    pub formula: String,
+    /// Steps such as "oxidative-addition H2", "migratory-insertion CO CH3",
+    /// "ring-slip Cp 3", "oxidation" (one quoted argument each).
+    #[arg(value_name = "STEP", required = true)]
+    pub steps: Vec<String>,
+    /// Record every step, as it is taken, in this session (created if needed).
+    #[arg(long, value_name = "NAME")]
+    pub session: Option<String>,
+}
+
+/// How `screen` ranks its candidates.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum RankArg {
+    /// Nearest --electrons (else the starting count), then least crowded, then strongest donor.
+    Electrons,
+    /// Least crowded first.
+    Crowding,
+    /// Strongest net donor (lowest TEP) first.
+    Donor,
+    /// Smallest cone angle first.
+    Cone,
+}
+
+impl From<RankArg> for Rank {
+    fn from(r: RankArg) -> Rank {
+        match r {
+            RankArg::Electrons => Rank::Electrons,
+            RankArg::Crowding => Rank::Crowding,
+            RankArg::Donor => Rank::Donor,
+            RankArg::Cone => Rank::Cone,
+        }
+    }
+}
+
+#[derive(Debug, Args)]
+pub struct ScreenArgs {
+    /// The complex to start from.
+    #[arg(value_name = "FORMULA")]
+    pub formula: String,
+    /// A ligand of the complex to replace; give two for pairs (the same twice for two
+    /// units of one group).
+    #[arg(long = "site", value_name = "LIGAND", required = true, num_args = 1)]
+    pub sites: Vec<String>,
+    /// Electron count at the metal: N or LO-HI.
+    #[arg(long, value_name = "N|LO-HI", value_parser = parse::electrons)]
+    pub electrons: Option<(i64, i64)>,
+    /// Only products at their target count (18, or 16 for square-planar d8).
+    #[arg(long)]
+    pub saturated: bool,
+    /// Highest crowding (sum of cone sphere fractions; 1.15 crowded, 1.35 overfull).
+    #[arg(long, value_name = "F", value_parser = parse::positive)]
+    pub max_crowding: Option<f64>,
+    /// Cone angle window for entering ligands, degrees: LO-HI.
+    #[arg(long, value_name = "LO-HI", value_parser = parse::window)]
+    pub cone: Option<(f64, f64)>,
+    /// Tolman electronic parameter window, cm-1: LO-HI.
+    #[arg(long, value_name = "LO-HI", value_parser = parse::window)]
+    pub tep: Option<(f64, f64)>,
+    /// Only products predicted diamagnetic.
+    #[arg(long)]
+    pub diamagnetic: bool,
+    /// Only ligands of this family (repeatable).
+    #[arg(long = "family", value_name = "FAMILY", value_parser = parse::family())]
+    pub families: Vec<String>,
+    /// Leave out this family (repeatable).
+    #[arg(long = "exclude-family", value_name = "FAMILY", value_parser = parse::family())]
+    pub exclude_families: Vec<String>,
+    /// Leave out ligands with GHS hazard statements in the catalogue; ligands with no
+    /// hazard record stay in and are flagged.
+    #[arg(long)]
+    pub no_hazardous: bool,
+    #[arg(long, value_enum, default_value = "electrons", value_name = "KEY")]
+    pub rank: RankArg,
+    /// How many candidates to show.
+    #[arg(long, default_value_t = 20, value_name = "N",
+          value_parser = clap::value_parser!(u32).range(1..))]
+    pub top: u32,
+    /// Run part K of N of the screen (for array jobs); outputs merge by concatenation
+    /// (ranks are per shard: sort merged JSON lines by "score").
+    #[arg(long, value_name = "K/N", value_parser = parse::shard)]
+    pub shard: Option<Shard>,
+    /// One JSON object per candidate per line.
+    #[arg(long)]
+    pub json: bool,
+}
+
+#[derive(Debug, Args)]
+pub struct StericsArgs {
+    /// The structure file, in ångström.
+    #[arg(value_name = "FILE")]
+    pub file: PathBuf,
+    /// The donor atom's number in the file (needed when the file has no metal).
+    #[arg(long, value_name = "N")]
+    pub donor: Option<usize>,
+    /// Metal-donor distance for a placed metal, Å [default: 2.28, as Tolman used for
+    /// phosphines; 2.00 is usual for carbenes]. A metal in the file is used as it is.
+    #[arg(long, value_name = "Å")]
+    pub distance: Option<f64>,
+    /// Leave hydrogens out of the buried volume.
+    #[arg(long)]
+    pub no_hydrogens: bool,
+    /// One JSON object.
+    #[arg(long)]
+    pub json: bool,
+    /// Store the ligand, with its computed cone angle, in this user ligand set.
+    #[arg(long, value_name = "SET")]
+    pub add_to: Option<String>,
+    /// The key for --add-to (as it will be written in formulas).
+    #[arg(long, value_name = "KEY")]
+    pub key: Option<String>,
+    /// A name for --add-to.
+    #[arg(long, value_name = "NAME")]
+    pub name: Option<String>,
+    /// The CBC class of the stored ligand's binding mode.
+    #[arg(long, default_value = "L", value_name = "CLASS")]
+    pub class: String,
+    /// The family of the stored ligand.
+    #[arg(long, default_value = "phosphine", value_name = "FAMILY", value_parser = parse::family())]
+    pub family: String,
+}
+
+#[derive(Debug, Args)]
+pub struct LigandsArgs {
+    /// Words to match against keys, names, formulas and aliases.
+    #[arg(value_name = "QUERY")]
+    pub query: Vec<String>,
+    /// One JSON object per ligand per line.
+    #[arg(long)]
+    pub json: bool,
+    /// Print where user ligand sets are read from, and stop.
+    #[arg(long)]
+    pub paths: bool,
+    /// List the substrates and reagents steps take and give (MeI, PhB(OH)2, AgBF4, ...)
+    /// instead of ligands.
+    #[arg(long)]
+    pub substrates: bool,
+}
+
+/// Value parsers for the typed arguments: each says what it takes when the value is wrong.
+mod parse {
+    use crate::chem::screen::Shard;
+
+    /// "16" or "16-18" as an inclusive range, low end first; NaN is no number.
+    fn range<T: std::str::FromStr + Copy + PartialOrd>(text: &str) -> Option<(T, T)> {
+        let (lo, hi) = match text.split_once('-') {
+            Some((a, b)) => (a.trim().parse().ok()?, b.trim().parse().ok()?),
+            None => {
+                let v = text.trim().parse().ok()?;
+                (v, v)
+            }
+        };
+        // `lo <= hi` is false for NaN too
+        (lo <= hi).then_some((lo, hi))
+    }
+
+    pub fn electrons(text: &str) -> Result<(i64, i64), String> {
+        range(text).ok_or_else(|| "takes N or LO-HI with LO <= HI, e.g. 16-18".to_string())
+    }
+
+    pub fn window(text: &str) -> Result<(f64, f64), String> {
+        range::<f64>(text)
+            .filter(|(lo, hi)| lo.is_finite() && hi.is_finite())
+            .ok_or_else(|| "takes LO-HI with LO <= HI, e.g. 120-160".to_string())
+    }
+
+    pub fn positive(text: &str) -> Result<f64, String> {
+        text.trim()
+            .parse::<f64>()
+            .ok()
+            .filter(|v| v.is_finite() && *v > 0.0)
+            .ok_or_else(|| "takes a positive number (1.15 crowded, 1.35 overfull)".to_string())
+    }
+
+    pub fn shard(text: &str) -> Result<Shard, String> {
+        Shard::parse(text).ok_or_else(|| "takes K/N with 1 <= K <= N, e.g. 2/8".to_string())
+    }
+
+    pub fn family() -> clap::builder::PossibleValuesParser {
+        clap::builder::PossibleValuesParser::new(crate::catalogue::FAMILIES)
+    }
+}
+
+/// How a command failed: its input was refused (exit status 2), or something that is not the
+/// input's fault went wrong (exit status 1).
+#[derive(Debug, thiserror::Error)]
+pub enum CliError {
+    #[error("{0}")]
+    Rejected(String),
+    #[error("{0:#}")]
+    Failure(anyhow::Error),
+}
+
+impl From<anyhow::Error> for CliError {
+    fn from(e: anyhow::Error) -> CliError {
+        CliError::Failure(e)
+    }
+}
+
+impl From<io::Error> for CliError {
+    fn from(e: io::Error) -> CliError {
+        CliError::Failure(e.into())
+    }
+}
+
+impl From<serde_json::Error> for CliError {
+    fn from(e: serde_json::Error) -> CliError {
+        CliError::Failure(e.into())
+    }
+}
+
+impl From<crate::session::SessionError> for CliError {
+    fn from(e: crate::session::SessionError) -> CliError {
+        CliError::Failure(e.into())
+    }
+}
+
+/// What a command returns: its status, or the one error `main` prints.
+pub type Outcome = Result<Status, CliError>;
+
+fn rejected<T>(msg: impl Into<String>) -> Result<T, CliError> {
+    Err(CliError::Rejected(msg.into()))
+}
+
+fn failed<T>(msg: impl Into<String>) -> Result<T, CliError> {
+    Err(CliError::Failure(anyhow::anyhow!(msg.into())))
+}
+
+/// Parse arguments, run, and print a command's error once, through `diag`; returns the exit
+/// status.
+pub fn main<I, T>(args: I) -> Status
 where
     I: IntoIterator<Item = T>,
     T: Into<std::ffi::OsString> + Clone,
@@ -246,198 +390,139 @@ where
         Ok(c) => c,
         Err(e) => {
             let code = e.exit_code();
-            e.print().context("writing the usage message")?;
-            return Ok(if code == 0 {
+            // help and version go to stdout; a closed stdout or stderr is no reason to abort
+            let _ = e.print();
+            return if code == 0 {
                 Status::Ok
             } else {
                 Status::Rejected
-            });
+            };
         }
     };
-    let ascii = cli.ascii || !utf8_locale();
-    match cli.command {
-        None => plan(None, None, ascii, cli.data_dir.as_deref()),
-        Some(Command::Plan { formula, session }) => {
-            plan(formula, session, ascii, cli.data_dir.as_deref())
+    diag::set_ascii(cli.ascii || !utf8_locale());
+    match run(cli) {
+        Ok(s) => s,
+        Err(CliError::Rejected(msg)) => {
+            diag::error(&msg);
+            Status::Rejected
         }
-        Some(Command::Sessions { json }) => sessions(json, cli.data_dir.as_deref()),
-        Some(Command::Export {
-            session,
-            format,
-            path,
-            output,
-        }) => export(
-            &session,
-            &format,
-            path.as_deref(),
-            output,
-            cli.data_dir.as_deref(),
+        Err(CliError::Failure(e)) => {
+            // `nonet ... | head` closes the pipe early: that is not an error
+            if e.chain().any(|c| {
+                c.downcast_ref::<io::Error>()
+                    .is_some_and(|io| io.kind() == io::ErrorKind::BrokenPipe)
+            }) {
+                return Status::Ok;
+            }
+            diag::error(&format!("{e:#}"));
+            Status::Failure
+        }
+    }
+}
+
+/// Run a parsed command line.
+pub fn run(cli: Cli) -> Outcome {
+    let ascii = diag::ascii();
+    let data_dir = cli.data_dir.as_deref();
+    match cli.command {
+        None => plan(
+            &PlanArgs {
+                formula: None,
+                session: None,
+            },
+            ascii,
+            data_dir,
         ),
-        Some(Command::Count {
-            json,
-            batch,
-            formulas,
-        }) => count(CountRequest {
-            json,
+        Some(Command::Plan(a)) => plan(&a, ascii, data_dir),
+        Some(Command::Sessions { json }) => sessions(json, data_dir),
+        Some(Command::Export(a)) => export(&a, data_dir),
+        Some(Command::Count(a)) => batch::count(&a, ascii),
+        Some(Command::Step(a)) => step(&a, ascii, data_dir),
+        Some(Command::Screen(a)) => screen::run(&a),
+        Some(Command::Sterics(a)) => sterics::run(sterics::StericsRequest {
+            file: a.file,
+            donor: a.donor,
+            distance: a.distance,
+            hydrogens: !a.no_hydrogens,
+            json: a.json,
+            add_to: a.add_to,
+            key: a.key,
+            name: a.name,
+            class: a.class,
+            family: a.family,
             ascii,
-            batch,
-            formulas,
-        }),
-        Some(Command::Step {
-            json,
-            formula,
-            steps,
-            session,
-        }) => step(
-            &formula,
-            &steps,
-            json,
-            ascii,
-            session.as_deref(),
-            cli.data_dir.as_deref(),
-        ),
-        Some(Command::Screen {
-            formula,
-            sites,
-            electrons,
-            saturated,
-            max_crowding,
-            cone,
-            tep,
-            diamagnetic,
-            families,
-            exclude_families,
-            no_hazardous,
-            rank,
-            top,
-            shard,
-            json,
-        }) => screen::run(screen::ScreenRequest {
-            formula,
-            sites,
-            electrons,
-            saturated,
-            max_crowding,
-            cone,
-            tep,
-            diamagnetic,
-            families,
-            exclude_families,
-            no_hazardous,
-            rank,
-            top,
-            shard,
-            json,
-        }),
-        Some(Command::Sterics {
-            file,
-            donor,
-            distance,
-            no_hydrogens,
-            json,
-            add_to,
-            key,
-            name,
-            class,
-            family,
-        }) => sterics::run(sterics::StericsRequest {
-            file,
-            donor,
-            distance,
-            hydrogens: !no_hydrogens,
-            json,
-            add_to,
-            key,
-            name,
-            class,
-            family,
-            ascii,
-        }),
-        Some(Command::Ligands {
-            query,
-            json,
-            paths,
-            substrates: list_substrates,
-        }) => {
-            if paths {
+        })
+        .map_err(CliError::Failure),
+        Some(Command::Ligands(a)) => {
+            if a.paths {
                 return print_paths();
             }
-            if list_substrates {
-                return substrates(&query.join(" "), json);
+            if a.substrates {
+                return substrates(&a.query.join(" "), a.json);
             }
-            ligands(&query.join(" "), json, ascii)
+            ligands(&a.query.join(" "), a.json, ascii)
         }
     }
 }
 
 /// Open the planner. With no formula and no session it resumes the latest session (or starts
 /// one on the demo complex); a formula starts a new session; `--session` opens a named one.
-fn plan(
-    formula: Option<String>,
-    session: Option<String>,
-    ascii: bool,
-    data_dir: Option<&std::path::Path>,
-) -> anyhow::Result<Status> {
+fn plan(args: &PlanArgs, ascii: bool, data_dir: Option<&std::path::Path>) -> Outcome {
     use crate::session::Session;
     use std::io::IsTerminal;
+    let (formula, session) = (&args.formula, &args.session);
     let cat = load_catalogue();
     // a formula that does not parse is reported first, then the terminal is checked, so that
     // no session is created for a planner that cannot open
-    if let Some(f) = &formula {
-        if let Err(e) = chem::parse(f, &cat) {
-            eprintln!("error: {}", e.render());
-            return Ok(Status::Rejected);
-        }
-    }
-    if !io::stdout().is_terminal() || !io::stdin().is_terminal() {
-        eprintln!(
-            "error: nonet's planner needs a terminal; for scripts use `nonet count` or \
-             `nonet step` (see --help)"
-        );
-        return Ok(Status::Failure);
-    }
-    let dir = crate::session::session_dir(data_dir);
-    // a formula that does not parse is reported before the screen changes
-    let typed = match &formula {
+    let typed = match formula {
         Some(f) => match chem::parse(f, &cat) {
             Ok(c) => Some((c, f.clone())),
-            Err(e) => {
-                eprintln!("error: {}", e.render());
-                return Ok(Status::Rejected);
-            }
+            Err(e) => return rejected(diag::parse_error(&e)),
         },
         None => None,
     };
-    let name = match (&session, &typed, &dir) {
+    if std::env::var("TERM").is_ok_and(|t| t == "dumb") {
+        return failed(
+            "TERM=dumb: this terminal cannot draw nonet's planner; use `nonet count`, \
+             `nonet step` or `nonet screen` here (see --help), or run in a terminal emulator",
+        );
+    }
+    if !io::stdout().is_terminal() || !io::stdin().is_terminal() {
+        return failed(
+            "nonet's planner needs a terminal; for scripts use `nonet count` or `nonet step` \
+             (see --help)",
+        );
+    }
+    let dir = crate::session::session_dir(data_dir);
+    let name = match (session, &typed, &dir) {
         (Some(n), _, _) => Some(n.clone()),
         (None, None, Some(d)) => crate::session::list(d).first().map(|s| s.name.clone()),
         _ => None,
     }
     .unwrap_or_else(crate::session::new_name);
     let mut log = match &dir {
-        Some(d) => match (&session, &typed) {
+        Some(d) => match (session, &typed) {
             (Some(n), None) => match Session::open_existing(d, n) {
                 Ok(s) => Some(s),
-                Err(e) => {
-                    eprintln!("error: {e}");
-                    return Ok(Status::Rejected);
-                }
+                Err(e) => return rejected(e.to_string()),
             },
             _ => match Session::open(d, &name) {
                 Ok(s) => Some(s),
                 Err(e) => {
-                    eprintln!("warning: {e}; this session will not be recorded");
+                    diag::warning(&format!("{e}; this session will not be recorded"));
                     None
                 }
             },
         },
         None => {
-            eprintln!("warning: no data directory (set NONET_DATA_DIR); this session will not be recorded");
+            diag::warning(
+                "no data directory (set NONET_DATA_DIR); this session will not be recorded",
+            );
             None
         }
     };
     for p in log.iter().flat_map(|s| &s.problems) {
-        eprintln!("warning: {}: line {}: {}", name, p.line, p.message);
+        diag::warning(&format!("{}: line {}: {}", name, p.line, p.message));
     }
     // the complex to show: what was typed, else where the session left off, else the demo
     let resumed = log.as_ref().and_then(|s| s.last()).and_then(|v| {
@@ -467,7 +552,7 @@ fn plan(
                 crate::session::Change::Start,
             ) {
                 Ok(id) => current = Some(id),
-                Err(e) => eprintln!("warning: {e}"),
+                Err(e) => diag::warning(&e.to_string()),
             }
         }
     }
@@ -485,10 +570,9 @@ fn plan(
     })
 }
 
-fn sessions(json_out: bool, data_dir: Option<&std::path::Path>) -> anyhow::Result<Status> {
+fn sessions(json_out: bool, data_dir: Option<&std::path::Path>) -> Outcome {
     let Some(dir) = crate::session::session_dir(data_dir) else {
-        eprintln!("error: no data directory: set NONET_DATA_DIR or use --data-dir");
-        return Ok(Status::Failure);
+        return failed("no data directory: set NONET_DATA_DIR or use --data-dir");
     };
     let list = crate::session::list(&dir);
     let stdout = io::stdout();
@@ -521,63 +605,48 @@ fn sessions(json_out: bool, data_dir: Option<&std::path::Path>) -> anyhow::Resul
     Ok(Status::Ok)
 }
 
-fn export(
-    name: &str,
-    format: &str,
-    path: Option<&str>,
-    output: Option<PathBuf>,
-    data_dir: Option<&std::path::Path>,
-) -> anyhow::Result<Status> {
+fn export(args: &ExportArgs, data_dir: Option<&std::path::Path>) -> Outcome {
     use crate::session::export::{self, Scope};
+    let name = args.session.as_str();
     let Some(dir) = crate::session::session_dir(data_dir) else {
-        eprintln!("error: no data directory: set NONET_DATA_DIR or use --data-dir");
-        return Ok(Status::Failure);
+        return failed("no data directory: set NONET_DATA_DIR or use --data-dir");
     };
     let file = dir.join(format!("{name}.jsonl"));
     if !file.exists() {
-        eprintln!(
-            "error: no session '{name}' in {}; `nonet sessions` lists them",
+        return rejected(format!(
+            "no session '{name}' in {}; `nonet sessions` lists them",
             dir.display()
-        );
-        return Ok(Status::Rejected);
+        ));
     }
     let s = crate::session::Session::load(&file)?;
     for p in &s.problems {
-        eprintln!("warning: {name}: line {}: {}", p.line, p.message);
+        diag::warning(&format!("{name}: line {}: {}", p.line, p.message));
     }
-    let scope = match path {
+    let scope = match &args.path {
         None => Scope::Tree,
         Some(v) => match s.find(v) {
             Some(variant) => Scope::Path(variant.id),
-            None => {
-                eprintln!("error: session '{name}' has no variant or bookmark '{v}'");
-                return Ok(Status::Rejected);
-            }
+            None => return rejected(format!("session '{name}' has no variant or bookmark '{v}'")),
         },
     };
-    let text = match format {
-        "md" | "markdown" => export::markdown(&s, &scope),
-        "json" => export::json(&s, &scope),
-        "csv" => export::csv(&s, &scope),
-        "svg" => {
+    let text = match args.format {
+        ExportFormat::Md => export::markdown(&s, &scope),
+        ExportFormat::Json => export::json(&s, &scope),
+        ExportFormat::Csv => export::csv(&s, &scope),
+        ExportFormat::Svg => {
             use crate::session::figure;
             let end = match &scope {
                 Scope::Path(id) => Some(*id),
                 Scope::Tree => figure::default_end(&s),
             };
             let Some(end) = end else {
-                eprintln!("error: session '{name}' has no variants to draw");
-                return Ok(Status::Rejected);
+                return rejected(format!("session '{name}' has no variants to draw"));
             };
             figure::svg(&s, &figure::cycle_ids(&s, end))
         }
-        other => {
-            eprintln!("error: unknown export format '{other}': use md, json, csv or svg");
-            return Ok(Status::Rejected);
-        }
     };
-    match output {
-        Some(p) => std::fs::write(&p, text).with_context(|| format!("writing {}", p.display()))?,
+    match &args.output {
+        Some(p) => std::fs::write(p, text).with_context(|| format!("writing {}", p.display()))?,
         None => {
             let mut out = io::stdout().lock();
             out.write_all(text.as_bytes())?;
@@ -590,175 +659,27 @@ fn export(
 pub(crate) fn load_catalogue() -> Catalogue {
     let cat = Catalogue::with_user_dir(catalogue::user_set_dir().as_deref());
     for w in &cat.warnings {
-        eprintln!("warning: {w}");
+        diag::warning(&w.to_string());
     }
     cat
 }
 
-/// Count formulas from the arguments and/or a batch file.
-pub fn count(req: CountRequest) -> anyhow::Result<Status> {
-    if req.formulas.is_empty() && req.batch.is_none() {
-        eprintln!("error: no formula given\n  try: nonet count 'CpFe(CO)2Me'  or  nonet count --batch FILE");
-        return Ok(Status::Rejected);
-    }
-    let cat = load_catalogue();
-    let stdout = io::stdout();
-    let mut out = BufWriter::with_capacity(1 << 16, stdout.lock());
-    let mut rejected = false;
-    let mut counter = Counter {
-        cat: &cat,
-        json: req.json,
-        ascii: req.ascii,
-        buf: Vec::with_capacity(1 << 17),
-    };
-    for f in &req.formulas {
-        rejected |= !counter.one(f, None, &mut out)?;
-    }
-    if let Some(path) = &req.batch {
-        let reader: Box<dyn BufRead> = if path.as_os_str() == "-" {
-            Box::new(io::BufReader::new(io::stdin().lock()))
-        } else {
-            let file = std::fs::File::open(path)
-                .with_context(|| format!("cannot open batch file {}", path.display()))?;
-            Box::new(io::BufReader::with_capacity(1 << 16, file))
-        };
-        let mut raw: Vec<u8> = Vec::new();
-        let mut reader = reader;
-        let mut number = 0usize;
-        loop {
-            raw.clear();
-            let n = reader
-                .read_until(b'\n', &mut raw)
-                .context("reading the batch input")?;
-            if n == 0 {
-                break;
-            }
-            number += 1;
-            let mut bytes = raw.as_slice();
-            if number == 1 {
-                // a byte-order mark from a Windows editor or spreadsheet export
-                bytes = bytes.strip_prefix(b"\xef\xbb\xbf").unwrap_or(bytes);
-            }
-            let text = match std::str::from_utf8(bytes) {
-                Ok(t) => t,
-                Err(_) => {
-                    let lossy = String::from_utf8_lossy(bytes);
-                    let shown = lossy.trim();
-                    eprintln!("error: line {number}: not UTF-8 text: {shown}");
-                    if counter.json {
-                        counter.flush(&mut out)?;
-                        json::write_message(&mut out, shown, "not UTF-8 text")?;
-                    }
-                    rejected = true;
-                    continue;
-                }
-            };
-            let f = text.trim();
-            if f.is_empty() || f.starts_with('#') {
-                continue;
-            }
-            rejected |= !counter.one(f, Some(number), &mut out)?;
-        }
-    }
-    counter.flush(&mut out).context("writing results")?;
-    out.flush().context("writing results")?;
-    Ok(if rejected {
-        Status::Rejected
-    } else {
-        Status::Ok
-    })
-}
-
-struct Counter<'a> {
-    cat: &'a Catalogue,
-    json: bool,
-    ascii: bool,
-    buf: Vec<u8>,
-}
-
-impl Counter<'_> {
-    /// Write out JSON lines gathered so far (records are batched to save a copy each).
-    fn flush(&mut self, out: &mut impl Write) -> io::Result<()> {
-        out.write_all(&self.buf)?;
-        self.buf.clear();
-        Ok(())
-    }
-
-    /// Count one formula and write it; false when it was rejected.
-    fn one(&mut self, input: &str, line: Option<usize>, out: &mut impl Write) -> io::Result<bool> {
-        match chem::parse(input, self.cat) {
-            Ok(complex) => {
-                let report = chem::count(&complex);
-                if let Some(why) = report.impossible() {
-                    let place = line.map(|n| format!("line {n}: ")).unwrap_or_default();
-                    eprintln!("error: {place}{input}: {why}");
-                    if self.json {
-                        self.flush(out)?;
-                        json::write_message(out, input, &why)?;
-                    }
-                    return Ok(false);
-                }
-                if self.json {
-                    json::append_report(&mut self.buf, input, &report);
-                    if self.buf.len() >= 1 << 16 {
-                        out.write_all(&self.buf)?;
-                        self.buf.clear();
-                    }
-                } else {
-                    text::write_report(out, input, &report, self.ascii)?;
-                }
-                Ok(true)
-            }
-            Err(e) => {
-                let place = line.map(|n| format!("line {n}: ")).unwrap_or_default();
-                let msg = format!("error: {place}{}", e.render());
-                if self.ascii {
-                    eprintln!("{}", text::ascii_text(&msg));
-                } else {
-                    eprintln!("{msg}");
-                }
-                if self.json {
-                    self.flush(out)?;
-                    json::write_error(out, input, &e)?;
-                }
-                Ok(false)
-            }
-        }
-    }
-}
-
 /// Apply steps one after another; a refused step stops the run with exit status 2. With a
 /// session, each step is written to its log (and synced) before its result is printed.
-fn step(
-    formula: &str,
-    steps: &[String],
-    json_out: bool,
-    ascii: bool,
-    session: Option<&str>,
-    data_dir: Option<&std::path::Path>,
-) -> anyhow::Result<Status> {
+fn step(args: &StepArgs, ascii: bool, data_dir: Option<&std::path::Path>) -> Outcome {
+    let (formula, steps, json_out) = (args.formula.as_str(), &args.steps, args.json);
     let cat = load_catalogue();
     let mut complex = match chem::parse(formula, &cat) {
         Ok(c) => c,
-        Err(e) => {
-            eprintln!("error: {}", e.render());
-            return Ok(Status::Rejected);
-        }
+        Err(e) => return rejected(diag::parse_error(&e)),
     };
-    let mut log = match session {
+    let mut log = match &args.session {
         None => None,
         Some(name) => {
             let Some(dir) = crate::session::session_dir(data_dir) else {
-                eprintln!("error: no data directory: set NONET_DATA_DIR or use --data-dir");
-                return Ok(Status::Failure);
+                return failed("no data directory: set NONET_DATA_DIR or use --data-dir");
             };
-            let mut s = match crate::session::Session::open(&dir, name) {
-                Ok(s) => s,
-                Err(e) => {
-                    eprintln!("error: {e}");
-                    return Ok(Status::Failure);
-                }
-            };
+            let mut s = crate::session::Session::open(&dir, name)?;
             // continue from the last variant when it is this complex, else record the start
             let canonical = complex.formula(false);
             let parent = match s.last() {
@@ -820,13 +741,11 @@ fn step(
                 complex = o.product;
             }
             Err(e) => {
-                out.flush()?;
-                eprintln!("error: step '{text}' refused: {e}");
                 if json_out {
                     json::write_step_error(&mut out, &input, text, &e.to_string())?;
                 }
                 out.flush()?;
-                return Ok(Status::Rejected);
+                return rejected(format!("step '{}' refused: {e}", diag::quote(text)));
             }
         }
     }
@@ -843,14 +762,13 @@ fn step(
     Ok(Status::Ok)
 }
 
-fn ligands(query: &str, json: bool, ascii: bool) -> anyhow::Result<Status> {
+fn ligands(query: &str, json: bool, ascii: bool) -> Outcome {
     let cat = load_catalogue();
     let hits = cat.search(query);
     let stdout = io::stdout();
     let mut out = BufWriter::new(stdout.lock());
     if hits.is_empty() {
-        eprintln!("no ligand matches '{query}'");
-        return Ok(Status::Rejected);
+        return rejected(format!("no ligand matches '{}'", diag::quote(query)));
     }
     for h in &hits {
         if json {
@@ -864,7 +782,7 @@ fn ligands(query: &str, json: bool, ascii: bool) -> anyhow::Result<Status> {
 }
 
 /// The substrates and reagents whose key, name, formula or alias contains the query.
-fn substrates(query: &str, json: bool) -> anyhow::Result<Status> {
+fn substrates(query: &str, json: bool) -> Outcome {
     let cat = load_catalogue();
     let q = query.to_lowercase();
     let hits: Vec<_> = cat
@@ -879,8 +797,7 @@ fn substrates(query: &str, json: bool) -> anyhow::Result<Status> {
         })
         .collect();
     if hits.is_empty() {
-        eprintln!("no substrate matches '{query}'");
-        return Ok(Status::Rejected);
+        return rejected(format!("no substrate matches '{}'", diag::quote(query)));
     }
     let stdout = io::stdout();
     let mut out = BufWriter::new(stdout.lock());
@@ -895,7 +812,7 @@ fn substrates(query: &str, json: bool) -> anyhow::Result<Status> {
     Ok(Status::Ok)
 }
 
-fn print_paths() -> anyhow::Result<Status> {
+fn print_paths() -> Outcome {
     let config = catalogue::config_dir();
     let sets = catalogue::user_set_dir();
     let show = |p: Option<PathBuf>| {
@@ -903,9 +820,10 @@ fn print_paths() -> anyhow::Result<Status> {
             p.display().to_string()
         })
     };
-    println!("config directory:  {}", show(config));
-    println!("user ligand sets:  {}", show(sets));
-    println!("(set NONET_CONFIG_DIR to use another directory)");
+    let mut out = io::stdout().lock();
+    writeln!(out, "config directory:  {}", show(config))?;
+    writeln!(out, "user ligand sets:  {}", show(sets))?;
+    writeln!(out, "(set NONET_CONFIG_DIR to use another directory)")?;
     Ok(Status::Ok)
 }
 

@@ -4,132 +4,29 @@ use std::io::{self, BufWriter, Write};
 
 use serde_json::json;
 
-use super::{load_catalogue, Status};
+use super::{diag, load_catalogue, rejected, Outcome, ScreenArgs, Status};
 use crate::chem::screen::{self, Constraints, Rank, Shard};
 use crate::chem::{self, Frac};
 
-/// What `screen` was asked to do, free of clap types.
-pub struct ScreenRequest {
-    pub formula: String,
-    pub sites: Vec<String>,
-    pub electrons: Option<String>,
-    pub saturated: bool,
-    pub max_crowding: Option<f64>,
-    pub cone: Option<String>,
-    pub tep: Option<String>,
-    pub diamagnetic: bool,
-    pub families: Vec<String>,
-    pub exclude_families: Vec<String>,
-    pub no_hazardous: bool,
-    pub rank: String,
-    pub top: usize,
-    pub shard: Option<String>,
-    pub json: bool,
-}
-
-/// "16" or "16-18" as an inclusive range, low end first; NaN is no number.
-fn range<T: std::str::FromStr + Copy + PartialOrd>(text: &str) -> Option<(T, T)> {
-    let (lo, hi) = match text.split_once('-') {
-        Some((a, b)) => (a.trim().parse().ok()?, b.trim().parse().ok()?),
-        None => {
-            let v = text.trim().parse().ok()?;
-            (v, v)
-        }
-    };
-    // `lo <= hi` is false for NaN too
-    (lo <= hi).then_some((lo, hi))
-}
-
-fn reject(msg: String) -> anyhow::Result<Status> {
-    eprintln!("error: {msg}");
-    Ok(Status::Rejected)
-}
-
-pub fn run(req: ScreenRequest) -> anyhow::Result<Status> {
+pub fn run(req: &ScreenArgs) -> Outcome {
     let cat = load_catalogue();
     let complex = match chem::parse(&req.formula, &cat) {
         Ok(c) => c,
-        Err(e) => return reject(e.render()),
+        Err(e) => return rejected(diag::parse_error(&e)),
     };
-    let mut constraints = Constraints {
+    let constraints = Constraints {
         saturated: req.saturated,
         max_crowding: req.max_crowding,
         diamagnetic: req.diamagnetic,
         families: req.families.clone(),
         exclude_families: req.exclude_families.clone(),
         no_hazardous: req.no_hazardous,
-        ..Constraints::default()
+        electrons: req.electrons,
+        cone: req.cone,
+        tep: req.tep,
     };
-    if let Some(e) = &req.electrons {
-        match range::<i64>(e) {
-            Some(r) => constraints.electrons = Some(r),
-            None => {
-                return reject(format!(
-                    "--electrons takes N or LO-HI with LO <= HI (e.g. 16-18), not '{e}'"
-                ))
-            }
-        }
-    }
-    if let Some(c) = &req.cone {
-        match range::<f64>(c) {
-            Some(r) => constraints.cone = Some(r),
-            None => {
-                return reject(format!(
-                    "--cone takes LO-HI in degrees with LO <= HI (e.g. 120-160), not '{c}'"
-                ))
-            }
-        }
-    }
-    if let Some(t) = &req.tep {
-        match range::<f64>(t) {
-            Some(r) => constraints.tep = Some(r),
-            None => {
-                return reject(format!(
-                    "--tep takes LO-HI in cm-1 with LO <= HI (e.g. 2050-2070), not '{t}'"
-                ))
-            }
-        }
-    }
-    for f in constraints
-        .families
-        .iter()
-        .chain(&constraints.exclude_families)
-    {
-        if !crate::catalogue::FAMILIES.contains(&f.as_str()) {
-            return reject(format!(
-                "unknown family '{f}'; the families are: {}",
-                crate::catalogue::FAMILIES.join(", ")
-            ));
-        }
-    }
-    if let Some(m) = req.max_crowding {
-        if !(m.is_finite() && m > 0.0) {
-            return reject(format!(
-                "--max-crowding takes a positive number (1.15 crowded, 1.35 overfull), not {m}"
-            ));
-        }
-    }
-    if req.top == 0 {
-        return reject("--top takes at least 1".into());
-    }
-    let rank = match req.rank.as_str() {
-        "electrons" => Rank::Electrons,
-        "crowding" => Rank::Crowding,
-        "donor" => Rank::Donor,
-        "cone" => Rank::Cone,
-        other => {
-            return reject(format!(
-                "unknown ranking '{other}': use electrons, crowding, donor or cone"
-            ))
-        }
-    };
-    let shard = match &req.shard {
-        None => None,
-        Some(s) => match Shard::parse(s) {
-            Some(sh) => Some(sh),
-            None => return reject(format!("--shard takes K/N with 1 <= K <= N, not '{s}'")),
-        },
-    };
+    let rank = Rank::from(req.rank);
+    let shard: Option<Shard> = req.shard;
     // sites: the slots of the named ligands; the same name twice means two units of it
     let mut slots = Vec::new();
     let present: Vec<String> = complex
@@ -147,7 +44,7 @@ pub fn run(req: ScreenRequest) -> anyhow::Result<Status> {
         let Some(l) = crate::chem::LigandLookup::exact(&cat, name)
             .or_else(|| crate::chem::LigandLookup::exact(&cat, bare))
         else {
-            return reject(format!(
+            return rejected(format!(
                 "unknown ligand '{name}' for --site; this complex has: {}",
                 present.join(", ")
             ));
@@ -157,7 +54,7 @@ pub fn run(req: ScreenRequest) -> anyhow::Result<Status> {
             .into_iter()
             .find(|s| complex.group(*s).is_some_and(|b| b.ligand.key == l.key))
         else {
-            return reject(format!(
+            return rejected(format!(
                 "{} has no {} to replace; it has: {}",
                 req.formula,
                 l.key,
@@ -167,7 +64,7 @@ pub fn run(req: ScreenRequest) -> anyhow::Result<Status> {
         let units = complex.group(slot).map_or(0, |b| b.count);
         let wanted = slots.iter().filter(|s| **s == slot).count() as u32 + 1;
         if wanted > units {
-            return reject(format!("{} has only {units} {}", req.formula, l.key));
+            return rejected(format!("{} has only {units} {}", req.formula, l.key));
         }
         slots.push(slot);
     }
@@ -177,11 +74,11 @@ pub fn run(req: ScreenRequest) -> anyhow::Result<Status> {
         cat.ligands(),
         &constraints,
         rank,
-        req.top,
+        req.top as usize,
         shard,
     ) {
         Ok(f) => f,
-        Err(e) => return reject(e.to_string()),
+        Err(e) => return rejected(e.to_string()),
     };
     let stdout = io::stdout();
     let mut out = BufWriter::new(stdout.lock());
@@ -267,17 +164,17 @@ pub fn run(req: ScreenRequest) -> anyhow::Result<Status> {
         }
     }
     if found.is_empty() {
-        eprintln!("no candidate meets the constraints");
+        diag::line("no candidate meets the constraints");
     }
     if any_partial && !req.json {
-        eprintln!("note: '?' after crowding: an entering ligand has no cone angle, so its bulk is not in the sum");
+        diag::line("note: '?' after crowding: an entering ligand has no cone angle, so its bulk is not in the sum");
     }
     if req.no_hazardous && !no_record.is_empty() && !req.json {
-        eprintln!(
+        diag::line(&format!(
             "note: no hazard record in the catalogue for {}; unknown is not safe: consult the \
              supplier's safety data sheet",
             no_record.into_iter().collect::<Vec<_>>().join(", ")
-        );
+        ));
     }
     out.flush()?;
     Ok(Status::Ok)

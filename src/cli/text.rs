@@ -35,7 +35,12 @@ fn report(out: &mut impl Write, input: &str, r: &Report, ascii: bool) -> io::Res
     } else {
         r.formula.clone()
     };
-    writeln!(out, "{formula}    (as typed: {input})")?;
+    // what was typed is shown with its control characters escaped, never raw
+    writeln!(
+        out,
+        "{formula}    (as typed: {})",
+        super::diag::quote(input)
+    )?;
     if r.metals.len() > 1 {
         let bonds = r
             .metal_metal_bonds

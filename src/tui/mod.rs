@@ -114,7 +114,7 @@ fn event_loop(
         }
         if app.repaint {
             app.repaint = false;
-            term.clear()?;
+            repaint(term)?;
             dirty = true;
         }
         if dirty {
@@ -153,6 +153,14 @@ fn suspend<B: ratatui::backend::Backend>(term: &mut Terminal<B>) -> anyhow::Resu
     signal_hook::low_level::raise(signal_hook::consts::SIGTSTP)?;
     terminal::enable_raw_mode()?;
     execute!(io::stdout(), terminal::EnterAlternateScreen)?;
-    term.clear().map_err(|e| anyhow::anyhow!("{e:?}"))?;
-    Ok(())
+    repaint(term)
+}
+
+/// Clear the screen and draw everything on the next frame, from the size the terminal reports
+/// by ioctl. Never asks the terminal where its cursor is: over a slow link or a key flood the
+/// answer can come late or be eaten, and `Terminal::clear` would end the planner waiting.
+fn repaint<B: ratatui::backend::Backend>(term: &mut Terminal<B>) -> anyhow::Result<()> {
+    let (w, h) = terminal::size()?;
+    term.resize(ratatui::layout::Rect::new(0, 0, w, h))
+        .map_err(|e| anyhow::anyhow!("{e:?}"))
 }

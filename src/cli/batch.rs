@@ -1,0 +1,440 @@
+//! `nonet count`: formulas from the arguments and from a batch file, counted on every core
+//! with the output in input order. Lines are read with a bound, so a hostile file cannot make
+//! nonet hold a 300 MB line in memory, and `--fields` trims the JSON to what a script needs.
+
+use std::io::{self, BufRead, BufWriter, Write};
+
+use anyhow::Context;
+
+use super::{diag, json, load_catalogue, rejected, text, CliError, CountArgs, Outcome, Status};
+use crate::catalogue::Catalogue;
+use crate::chem;
+
+/// Longest batch line counted; a longer one is refused and skipped without being held whole.
+pub const MAX_LINE: usize = 64 * 1024;
+
+/// Lines handed to the workers at a time: large enough to keep the threads busy, small
+/// enough that the output streams.
+const CHUNK: usize = 4096;
+
+/// How much of a refused line a message quotes.
+const EXCERPT: usize = 80;
+
+/// One line read from the batch input.
+enum Line {
+    Text(String),
+    /// Not UTF-8: the lossy text for the message.
+    NotUtf8(String),
+    /// Over `MAX_LINE` bytes: its length and its first bytes.
+    TooLong(usize, String),
+}
+
+/// Read one line of at most `max` bytes into `buf` (without its newline); a longer line is
+/// consumed to its end but only its first bytes are kept. None at end of input.
+fn read_bounded(r: &mut impl BufRead, buf: &mut Vec<u8>, max: usize) -> io::Result<Option<usize>> {
+    buf.clear();
+    let mut total = 0usize;
+    let mut any = false;
+    loop {
+        let chunk = match r.fill_buf() {
+            Ok(c) => c,
+            Err(e) if e.kind() == io::ErrorKind::Interrupted => continue,
+            Err(e) => return Err(e),
+        };
+        if chunk.is_empty() {
+            return Ok(any.then_some(total));
+        }
+        any = true;
+        let (part, done) = match chunk.iter().position(|&b| b == b'\n') {
+            Some(i) => (&chunk[..i], Some(i + 1)),
+            None => (chunk, None),
+        };
+        let room = (max + 1).saturating_sub(buf.len());
+        buf.extend_from_slice(&part[..part.len().min(room)]);
+        total += part.len();
+        let used = done.unwrap_or(part.len());
+        r.consume(used);
+        if done.is_some() {
+            return Ok(Some(total));
+        }
+    }
+}
+
+/// The top-level JSON fields `--fields` keeps, checked against a real report's fields.
+struct Fields(Vec<Vec<u8>>);
+
+impl Fields {
+    fn new(names: &[String], cat: &Catalogue) -> Result<Option<Fields>, CliError> {
+        if names.is_empty() {
+            return Ok(None);
+        }
+        let known = match chem::parse("Cr(CO)6", cat) {
+            Ok(c) => {
+                let mut buf = Vec::new();
+                json::append_report(&mut buf, "Cr(CO)6", &chem::count(&c));
+                top_level(&buf)
+                    .into_iter()
+                    .map(|(k, _)| String::from_utf8_lossy(k).into_owned())
+                    .collect::<Vec<_>>()
+            }
+            Err(_) => Vec::new(),
+        };
+        for n in names {
+            if !known.is_empty() && !known.contains(n) {
+                return rejected(format!(
+                    "--fields: no field '{}' in a count's JSON; the fields are: {}",
+                    diag::quote(n),
+                    known.join(", ")
+                ));
+            }
+        }
+        Ok(Some(Fields(
+            names.iter().map(|n| n.as_bytes().to_vec()).collect(),
+        )))
+    }
+
+    /// Copy `line` (one JSON object and its newline) keeping only the named fields.
+    fn keep(&self, line: &[u8], out: &mut Vec<u8>) {
+        out.push(b'{');
+        let mut first = true;
+        for (k, v) in top_level(line) {
+            if self.0.iter().any(|f| f.as_slice() == k) {
+                if !first {
+                    out.push(b',');
+                }
+                first = false;
+                out.push(b'"');
+                out.extend_from_slice(k);
+                out.extend_from_slice(b"\":");
+                out.extend_from_slice(v);
+            }
+        }
+        out.extend_from_slice(b"}\n");
+    }
+}
+
+/// The top-level (key, value) byte ranges of a JSON object nonet wrote (keys need no
+/// unescaping: they are plain identifiers).
+fn top_level(line: &[u8]) -> Vec<(&[u8], &[u8])> {
+    let mut out = Vec::new();
+    let mut i = match line.iter().position(|&b| b == b'{') {
+        Some(p) => p + 1,
+        None => return out,
+    };
+    let n = line.len();
+    while i < n {
+        // key
+        while i < n && line[i] != b'"' {
+            if line[i] == b'}' {
+                return out;
+            }
+            i += 1;
+        }
+        let ks = i + 1;
+        let mut j = ks;
+        while j < n && line[j] != b'"' {
+            j += 1;
+        }
+        let key = &line[ks.min(n)..j.min(n)];
+        i = j + 1;
+        while i < n && line[i] != b':' {
+            i += 1;
+        }
+        i += 1;
+        // value: up to the comma or brace that ends it at depth 0
+        let vs = i;
+        let mut depth = 0i32;
+        let mut in_str = false;
+        while i < n {
+            let b = line[i];
+            if in_str {
+                if b == b'\\' {
+                    i += 1;
+                } else if b == b'"' {
+                    in_str = false;
+                }
+            } else {
+                match b {
+                    b'"' => in_str = true,
+                    b'{' | b'[' => depth += 1,
+                    b'}' | b']' if depth > 0 => depth -= 1,
+                    b',' | b'}' if depth == 0 => break,
+                    _ => {}
+                }
+            }
+            i += 1;
+        }
+        out.push((key, &line[vs.min(n)..i.min(n)]));
+        if i < n && line[i] == b'}' {
+            break;
+        }
+        i += 1;
+    }
+    out
+}
+
+/// What counting a line gave: output bytes (in order), messages for stderr, and whether the
+/// input was refused.
+#[derive(Default)]
+struct Done {
+    out: Vec<u8>,
+    errors: Vec<String>,
+    rejected: bool,
+}
+
+struct Counter<'a> {
+    cat: &'a Catalogue,
+    json: bool,
+    ascii: bool,
+    fields: Option<&'a Fields>,
+}
+
+impl Counter<'_> {
+    fn line(&self, line: &Line, number: Option<usize>, done: &mut Done) {
+        let place = number.map(|n| format!("line {n}: ")).unwrap_or_default();
+        match line {
+            Line::Text(t) => self.one(t, &place, done),
+            Line::NotUtf8(lossy) => {
+                let shown = excerpt(lossy.trim());
+                done.errors
+                    .push(format!("{place}not UTF-8 text: {}", diag::quote(&shown)));
+                if self.json {
+                    let _ = json::write_message(&mut done.out, &shown, "not UTF-8 text");
+                }
+                done.rejected = true;
+            }
+            Line::TooLong(len, start) => {
+                let why = format!(
+                    "line of {len} bytes is longer than {MAX_LINE} (no formula is that long); \
+                     it starts: {}",
+                    diag::quote(start)
+                );
+                done.errors.push(format!("{place}{why}"));
+                if self.json {
+                    let _ = json::write_message(&mut done.out, start, &why);
+                }
+                done.rejected = true;
+            }
+        }
+    }
+
+    fn one(&self, input: &str, place: &str, done: &mut Done) {
+        match chem::parse(input, self.cat) {
+            Ok(complex) => {
+                let report = chem::count(&complex);
+                if let Some(why) = report.impossible() {
+                    done.errors
+                        .push(format!("{place}{}: {why}", diag::quote(input)));
+                    if self.json {
+                        let _ = json::write_message(&mut done.out, input, &why);
+                    }
+                    done.rejected = true;
+                    return;
+                }
+                if self.json {
+                    match self.fields {
+                        None => json::append_report(&mut done.out, input, &report),
+                        Some(f) => {
+                            let mut full = Vec::with_capacity(2048);
+                            json::append_report(&mut full, input, &report);
+                            f.keep(&full, &mut done.out);
+                        }
+                    }
+                } else {
+                    let _ = text::write_report(&mut done.out, input, &report, self.ascii);
+                }
+            }
+            Err(e) => {
+                done.errors
+                    .push(format!("{place}{}", diag::parse_error(&e)));
+                if self.json {
+                    let _ = json::write_error(&mut done.out, input, &e);
+                }
+                done.rejected = true;
+            }
+        }
+    }
+
+    /// Count a chunk of lines on `threads` threads; the results come back in input order.
+    fn chunk(&self, lines: &[(usize, Line)], threads: usize) -> Vec<Done> {
+        let per = lines.len().div_ceil(threads.max(1)).max(1);
+        if threads <= 1 || lines.len() < 64 {
+            return vec![self.run(lines)];
+        }
+        std::thread::scope(|s| {
+            let handles: Vec<_> = lines
+                .chunks(per)
+                .map(|part| s.spawn(move || self.run(part)))
+                .collect();
+            handles
+                .into_iter()
+                .map(|h| h.join().unwrap_or_default())
+                .collect()
+        })
+    }
+
+    fn run(&self, lines: &[(usize, Line)]) -> Done {
+        let mut done = Done::default();
+        for (n, l) in lines {
+            self.line(l, Some(*n), &mut done);
+        }
+        done
+    }
+}
+
+fn excerpt(text: &str) -> String {
+    let mut t: String = text.chars().take(EXCERPT).collect();
+    if t.len() < text.len() {
+        t.push('…');
+    }
+    t
+}
+
+/// Write a result: its output, then its messages.
+fn emit(done: Done, out: &mut impl Write) -> Result<bool, CliError> {
+    if !done.errors.is_empty() {
+        // what came before the error reaches stdout first
+        out.write_all(&done.out).context("writing results")?;
+        out.flush().context("writing results")?;
+        for e in &done.errors {
+            diag::error(e);
+        }
+    } else {
+        out.write_all(&done.out).context("writing results")?;
+    }
+    Ok(done.rejected)
+}
+
+/// Count formulas from the arguments and/or a batch file.
+pub fn count(args: &CountArgs, ascii: bool) -> Outcome {
+    if args.formulas.is_empty() && args.batch.is_none() {
+        return rejected(
+            "no formula given\n  try: nonet count 'CpFe(CO)2Me'  or  nonet count --batch FILE",
+        );
+    }
+    let cat = load_catalogue();
+    let fields = Fields::new(&args.fields, &cat)?;
+    let counter = Counter {
+        cat: &cat,
+        json: args.json,
+        ascii,
+        fields: fields.as_ref(),
+    };
+    let stdout = io::stdout();
+    let mut out = BufWriter::with_capacity(1 << 16, stdout.lock());
+    let mut any_rejected = false;
+    for f in &args.formulas {
+        let mut done = Done::default();
+        counter.line(&Line::Text(f.clone()), None, &mut done);
+        any_rejected |= emit(done, &mut out)?;
+    }
+    if let Some(path) = &args.batch {
+        let mut reader: Box<dyn BufRead> = if path.as_os_str() == "-" {
+            Box::new(io::BufReader::with_capacity(1 << 16, io::stdin().lock()))
+        } else {
+            let meta = std::fs::metadata(path)
+                .with_context(|| format!("cannot open batch file {}", path.display()))?;
+            if meta.is_dir() {
+                return rejected(format!(
+                    "batch file {} is a directory; give a file of formulas, one per line",
+                    diag::quote(&path.display().to_string())
+                ));
+            }
+            let file = std::fs::File::open(path)
+                .with_context(|| format!("cannot open batch file {}", path.display()))?;
+            Box::new(io::BufReader::with_capacity(1 << 16, file))
+        };
+        let threads = std::thread::available_parallelism().map_or(1, |n| n.get());
+        let mut raw = Vec::with_capacity(256);
+        let mut number = 0usize;
+        let mut lines: Vec<(usize, Line)> = Vec::with_capacity(CHUNK);
+        loop {
+            let got =
+                read_bounded(&mut reader, &mut raw, MAX_LINE).context("reading the batch input")?;
+            let end = got.is_none();
+            if let Some(len) = got {
+                number += 1;
+                let mut bytes = raw.as_slice();
+                if number == 1 {
+                    // a byte-order mark from a Windows editor or spreadsheet export
+                    bytes = bytes.strip_prefix(b"\xef\xbb\xbf").unwrap_or(bytes);
+                }
+                let line = if len > MAX_LINE {
+                    let head = &bytes[..bytes.len().min(EXCERPT)];
+                    Some(Line::TooLong(len, excerpt(&String::from_utf8_lossy(head))))
+                } else {
+                    match std::str::from_utf8(bytes) {
+                        Ok(t) => {
+                            let f = t.trim();
+                            (!f.is_empty() && !f.starts_with('#'))
+                                .then(|| Line::Text(f.to_string()))
+                        }
+                        Err(_) => Some(Line::NotUtf8(String::from_utf8_lossy(bytes).into_owned())),
+                    }
+                };
+                if let Some(l) = line {
+                    lines.push((number, l));
+                }
+            }
+            if lines.len() >= CHUNK || (end && !lines.is_empty()) {
+                for done in counter.chunk(&lines, threads) {
+                    any_rejected |= emit(done, &mut out)?;
+                }
+                lines.clear();
+            }
+            if end {
+                break;
+            }
+        }
+    }
+    out.flush().context("writing results")?;
+    Ok(if any_rejected {
+        Status::Rejected
+    } else {
+        Status::Ok
+    })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_long_line_is_cut_but_consumed() {
+        let text = format!("{}\nCr(CO)6\n", "x".repeat(1000));
+        let mut r = io::BufReader::with_capacity(16, text.as_bytes());
+        let mut buf = Vec::new();
+        assert_eq!(
+            read_bounded(&mut r, &mut buf, 100).ok().flatten(),
+            Some(1000)
+        );
+        assert!(buf.len() <= 101);
+        assert_eq!(read_bounded(&mut r, &mut buf, 100).ok().flatten(), Some(7));
+        assert_eq!(buf, b"Cr(CO)6");
+        assert_eq!(read_bounded(&mut r, &mut buf, 100).ok().flatten(), None);
+    }
+
+    #[test]
+    fn fields_are_split_at_the_top_level() {
+        let line = br#"{"a":1,"b":{"c":[1,2,{"d":"x,}"}]},"e":"q\"r","f":[]}"#;
+        let keys: Vec<String> = top_level(line)
+            .iter()
+            .map(|(k, v)| {
+                format!(
+                    "{}={}",
+                    String::from_utf8_lossy(k),
+                    String::from_utf8_lossy(v)
+                )
+            })
+            .collect();
+        assert_eq!(
+            keys,
+            [
+                r#"a=1"#,
+                r#"b={"c":[1,2,{"d":"x,}"}]}"#,
+                r#"e="q\"r""#,
+                "f=[]"
+            ]
+        );
+    }
+}

@@ -4,141 +4,13 @@
 //! Every run gets a fresh NONET_CONFIG_DIR under the system temp dir (so no real user sets are
 //! read), LANG=C.UTF-8 unless the test says otherwise, and no LC_ALL / LC_CTYPE.
 
-use std::io::{BufRead, BufReader, Read, Write};
-use std::path::PathBuf;
-use std::process::{Command, Output, Stdio};
-use std::sync::atomic::{AtomicUsize, Ordering};
-use std::time::{SystemTime, UNIX_EPOCH};
+mod common;
 
+use std::io::{BufRead, BufReader, Read};
+use std::process::Stdio;
+
+use common::cli::{Run, Scratch};
 use serde_json::Value;
-
-const BIN: &str = env!("CARGO_BIN_EXE_nonet");
-
-/// A scratch directory under the system temp dir, removed on drop.
-struct Scratch(PathBuf);
-
-impl Scratch {
-    fn new(tag: &str) -> Scratch {
-        static N: AtomicUsize = AtomicUsize::new(0);
-        let nanos = SystemTime::now()
-            .duration_since(UNIX_EPOCH)
-            .map_or(0, |d| d.as_nanos());
-        let dir = std::env::temp_dir().join(format!(
-            "nonet-cli-test-{tag}-{}-{}-{nanos}",
-            std::process::id(),
-            N.fetch_add(1, Ordering::SeqCst)
-        ));
-        std::fs::create_dir_all(dir.join("config")).expect("create scratch dir");
-        Scratch(dir)
-    }
-
-    fn config(&self) -> PathBuf {
-        self.0.join("config")
-    }
-
-    fn write(&self, name: &str, bytes: &[u8]) -> PathBuf {
-        let p = self.0.join(name);
-        if let Some(parent) = p.parent() {
-            std::fs::create_dir_all(parent).expect("create scratch subdir");
-        }
-        std::fs::write(&p, bytes).expect("write scratch file");
-        p
-    }
-
-    /// Put a user ligand set into $NONET_CONFIG_DIR/ligand_sets/.
-    fn user_set(&self, name: &str, text: &str) -> PathBuf {
-        let dir = self.config().join("ligand_sets");
-        std::fs::create_dir_all(&dir).expect("create user set dir");
-        let p = dir.join(name);
-        std::fs::write(&p, text).expect("write user set");
-        p
-    }
-
-    fn cmd(&self) -> Command {
-        self.cmd_lang(Some("C.UTF-8"))
-    }
-
-    fn cmd_lang(&self, lang: Option<&str>) -> Command {
-        let mut c = Command::new(BIN);
-        c.env("NONET_CONFIG_DIR", self.config())
-            .env("NONET_DATA_DIR", self.0.join("data"))
-            .env("XDG_CONFIG_HOME", self.0.join("xdg"))
-            .env_remove("LC_ALL")
-            .env_remove("LC_CTYPE")
-            .env_remove("LANGUAGE");
-        match lang {
-            Some(l) => c.env("LANG", l),
-            None => c.env_remove("LANG"),
-        };
-        c
-    }
-
-    fn run(&self, args: &[&str]) -> Run {
-        Run::from(self.cmd().args(args).output().expect("run nonet"))
-    }
-
-    fn run_stdin(&self, args: &[&str], input: &[u8]) -> Run {
-        let mut child = self
-            .cmd()
-            .args(args)
-            .stdin(Stdio::piped())
-            .stdout(Stdio::piped())
-            .stderr(Stdio::piped())
-            .spawn()
-            .expect("spawn nonet");
-        let mut stdin = child.stdin.take().unwrap();
-        let input = input.to_vec();
-        let writer = std::thread::spawn(move || {
-            stdin.write_all(&input).expect("write stdin");
-        });
-        let out = child.wait_with_output().expect("wait for nonet");
-        writer.join().unwrap();
-        Run::from(out)
-    }
-}
-
-impl Drop for Scratch {
-    fn drop(&mut self) {
-        let _ = std::fs::remove_dir_all(&self.0);
-    }
-}
-
-struct Run {
-    code: Option<i32>,
-    stdout: String,
-    stderr: String,
-    raw_stdout: Vec<u8>,
-}
-
-impl From<Output> for Run {
-    fn from(o: Output) -> Run {
-        Run {
-            code: o.status.code(),
-            stdout: String::from_utf8_lossy(&o.stdout).into_owned(),
-            stderr: String::from_utf8_lossy(&o.stderr).into_owned(),
-            raw_stdout: o.stdout,
-        }
-    }
-}
-
-impl Run {
-    fn show(&self) -> String {
-        format!(
-            "exit {:?}\n--- stdout ---\n{}\n--- stderr ---\n{}",
-            self.code, self.stdout, self.stderr
-        )
-    }
-
-    fn json_lines(&self) -> Vec<Value> {
-        self.stdout
-            .lines()
-            .map(|l| {
-                serde_json::from_str(l)
-                    .unwrap_or_else(|e| panic!("not JSON ({e}): {l:?}\n{}", self.show()))
-            })
-            .collect()
-    }
-}
 
 fn has(v: &Value, key: &str) -> bool {
     v.as_object().is_some_and(|o| o.contains_key(key))
@@ -437,7 +309,7 @@ fn batch_from_stdin_with_bad_line() {
 #[test]
 fn missing_batch_file_exits_one_naming_the_path() {
     let s = Scratch::new("missing");
-    let path = s.0.join("no-such-dir").join("formulas.txt");
+    let path = s.path().join("no-such-dir").join("formulas.txt");
     let p = path.to_str().unwrap();
     let r = s.run(&["count", "--batch", p]);
     assert_eq!(r.code, Some(1), "{}", r.show());

@@ -2,14 +2,15 @@
 //! checked against the net reaction its source gives. The net is compared as Hill formulas
 //! with counts and charges, so a renamed species cannot hide a wrong one.
 
+mod common;
+
+use common::cli::Scratch;
 use serde_json::Value;
-use std::process::Command;
 
 /// The closing line of `nonet step --json START STEPS...`.
 fn closing(start: &str, steps: &[&str]) -> Value {
-    let dir = std::env::temp_dir().join(format!("nonet-cycles-{}", std::process::id()));
-    let out = Command::new(env!("CARGO_BIN_EXE_nonet"))
-        .env("NONET_DATA_DIR", &dir)
+    let out = Scratch::new("cycle")
+        .cmd()
         .arg("step")
         .arg("--json")
         .arg(start)

@@ -1,20 +1,17 @@
 //! The cycle figure: `nonet export --format svg` writes XML that parses (an SVG document any
 //! browser opens) and names every intermediate of the cycle and its net reaction.
 
-use std::process::Command;
+mod common;
 
-fn nonet(dir: &std::path::Path, args: &[&str]) -> std::process::Output {
-    Command::new(env!("CARGO_BIN_EXE_nonet"))
-        .args(args)
-        .env("NONET_DATA_DIR", dir)
-        .env("NONET_CONFIG_DIR", dir.join("config"))
-        .output()
-        .expect("run nonet")
+use common::cli::Scratch;
+
+fn nonet(s: &Scratch, args: &[&str]) -> std::process::Output {
+    s.cmd().args(args).output().expect("run nonet")
 }
 
 #[test]
 fn the_suzuki_cycle_as_svg() {
-    let dir = tempfile::tempdir().expect("temp dir");
+    let dir = Scratch::new("figure");
     let steps = [
         "oxidative-addition PhBr",
         "transmetalation PhB(OH)2",
@@ -22,9 +19,9 @@ fn the_suzuki_cycle_as_svg() {
     ];
     let mut args = vec!["step", "--session", "suzuki", "Pd(PPh3)2"];
     args.extend(steps);
-    let o = nonet(dir.path(), &args);
+    let o = nonet(&dir, &args);
     assert!(o.status.success(), "{}", String::from_utf8_lossy(&o.stderr));
-    let o = nonet(dir.path(), &["export", "suzuki", "--format", "svg"]);
+    let o = nonet(&dir, &["export", "suzuki", "--format", "svg"]);
     assert!(o.status.success(), "{}", String::from_utf8_lossy(&o.stderr));
     let svg = String::from_utf8(o.stdout).expect("UTF-8");
     let doc = roxmltree::Document::parse(&svg).expect("the figure is well-formed XML");

@@ -1,14 +1,16 @@
 //! `nonet plan` outside a terminal: a clear error pointing to the scriptable command, and bad
 //! formulas refused before the screen changes.
 
-use std::process::{Command, Stdio};
+mod common;
+
+use std::process::Stdio;
+
+use common::cli::Scratch;
 
 fn nonet(args: &[&str]) -> std::process::Output {
-    let dir = std::env::temp_dir().join(format!("nonet-plan-{}", std::process::id()));
-    Command::new(env!("CARGO_BIN_EXE_nonet"))
+    Scratch::new("plan")
+        .cmd()
         .args(args)
-        .env("NONET_CONFIG_DIR", &dir)
-        .env("NONET_DATA_DIR", &dir)
         .stdin(Stdio::null())
         .output()
         .expect("run nonet")

@@ -10,8 +10,11 @@
 //!   package. The other ligands of each complex drop out because they are not bonded to the
 //!   chosen donor.
 
+mod common;
+
 use std::path::Path;
-use std::process::Command;
+
+use common::cli::Scratch;
 
 use nonet::chem::shape::{buried_volume, exact_cone_angle, setup};
 use nonet::chem::structure;
@@ -65,7 +68,8 @@ fn buried_volumes_match_falivene_2016() {
 #[test]
 fn the_cli_names_the_ligand_it_measured() {
     let file = Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/data/falivene2016/complex1.xyz");
-    let out = Command::new(env!("CARGO_BIN_EXE_nonet"))
+    let out = Scratch::new("sterics")
+        .cmd()
         .args(["sterics", "--json", "--no-hydrogens", "--donor", "14"])
         .arg(&file)
         .output()
@@ -84,7 +88,8 @@ fn the_cli_names_the_ligand_it_measured() {
     assert_eq!(v["hydrogens"], false);
     // without --donor the nearest atom binds: here a carbonyl carbon, and the text says what
     // was left out
-    let out = Command::new(env!("CARGO_BIN_EXE_nonet"))
+    let out = Scratch::new("sterics")
+        .cmd()
         .args(["sterics"])
         .arg(&file)
         .output()

@@ -15,10 +15,10 @@
 //! NONET_DATA_DIR pointing into a fresh scratch directory so no user files are read.
 
 use serde_json::Value;
-use std::path::PathBuf;
-use std::process::Command;
-use std::sync::atomic::{AtomicUsize, Ordering};
-use std::time::{SystemTime, UNIX_EPOCH};
+
+mod common;
+
+use common::cli::{Run, Scratch};
 
 const TOL: f64 = 1e-6;
 
@@ -1141,58 +1141,12 @@ fn group_of(symbol: &str) -> Option<f64> {
 // Running the binary
 // ---------------------------------------------------------------------------------------------
 
-/// A fresh directory under the system temp dir, removed on drop.
-struct Scratch(PathBuf);
-
-impl Scratch {
-    fn new(tag: &str) -> Scratch {
-        static COUNTER: AtomicUsize = AtomicUsize::new(0);
-        let n = COUNTER.fetch_add(1, Ordering::SeqCst);
-        let nanos = SystemTime::now()
-            .duration_since(UNIX_EPOCH)
-            .map(|d| d.as_nanos())
-            .unwrap_or(0);
-        let dir = std::env::temp_dir().join(format!(
-            "nonet-reference-{tag}-{}-{nanos}-{n}",
-            std::process::id()
-        ));
-        std::fs::create_dir_all(dir.join("config")).expect("create scratch config dir");
-        std::fs::create_dir_all(dir.join("data")).expect("create scratch data dir");
-        Scratch(dir)
-    }
-}
-
-impl Drop for Scratch {
-    fn drop(&mut self) {
-        let _ = std::fs::remove_dir_all(&self.0);
-    }
-}
-
-struct Run {
-    code: Option<i32>,
-    stdout: String,
-    stderr: String,
-}
-
 /// Runs `nonet count --json FORMULA...` once.
 fn count_json(tag: &str, formulas: &[&str]) -> Run {
     let scratch = Scratch::new(tag);
-    let out = Command::new(env!("CARGO_BIN_EXE_nonet"))
-        .arg("count")
-        .arg("--json")
-        .args(formulas)
-        .env("NONET_CONFIG_DIR", scratch.0.join("config"))
-        .env("NONET_DATA_DIR", scratch.0.join("data"))
-        .env("XDG_CONFIG_HOME", scratch.0.join("config"))
-        .env("XDG_DATA_HOME", scratch.0.join("data"))
-        .env("NO_COLOR", "1")
-        .output()
-        .expect("failed to start the nonet binary");
-    Run {
-        code: out.status.code(),
-        stdout: String::from_utf8_lossy(&out.stdout).into_owned(),
-        stderr: String::from_utf8_lossy(&out.stderr).into_owned(),
-    }
+    let mut args = vec!["count", "--json"];
+    args.extend(formulas);
+    scratch.run(&args)
 }
 
 /// Parses stdout into one JSON value per non-empty line.

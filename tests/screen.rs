@@ -204,11 +204,9 @@ fn json_lines(out: &std::process::Output) -> Vec<serde_json::Value> {
 }
 
 fn nonet(args: &[&str]) -> std::process::Output {
-    let dir = std::env::temp_dir().join(format!("nonet-screen-{}", std::process::id()));
-    std::process::Command::new(env!("CARGO_BIN_EXE_nonet"))
+    common::cli::Scratch::new("screen")
+        .cmd()
         .args(args)
-        .env("NONET_CONFIG_DIR", &dir)
-        .env("NONET_DATA_DIR", &dir)
         .output()
         .expect("run nonet")
 }

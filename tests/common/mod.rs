@@ -2,6 +2,7 @@
 
 #![allow(dead_code)]
 
+pub mod cli;
 pub mod keys;
 
 use nonet::catalogue::Catalogue;

@@ -15,7 +15,7 @@ pub const MAX_LINE: usize = 64 * 1024;
 
 /// Lines handed to the workers at a time: large enough to keep the threads busy, small
 /// enough that the output streams.
-const CHUNK: usize = 4096;
+const CHUNK: usize = 1024;
 
 /// How much of a refused line a message quotes.
 const EXCERPT: usize = 80;
@@ -31,7 +31,11 @@ enum Line {
 
 /// Read one line of at most `max` bytes into `buf` (without its newline); a longer line is
 /// consumed to its end but only its first bytes are kept. None at end of input.
-fn read_bounded(r: &mut impl BufRead, buf: &mut Vec<u8>, max: usize) -> io::Result<Option<usize>> {
+fn read_bounded(
+    r: &mut (impl BufRead + ?Sized),
+    buf: &mut Vec<u8>,
+    max: usize,
+) -> io::Result<Option<usize>> {
     buf.clear();
     let mut total = 0usize;
     let mut any = false;
@@ -61,7 +65,7 @@ fn read_bounded(r: &mut impl BufRead, buf: &mut Vec<u8>, max: usize) -> io::Resu
 }
 
 /// The top-level JSON fields `--fields` keeps, checked against a real report's fields.
-struct Fields(Vec<Vec<u8>>);
+struct Fields(Vec<String>);
 
 impl Fields {
     fn new(names: &[String], cat: &Catalogue) -> Result<Option<Fields>, CliError> {
@@ -88,28 +92,7 @@ impl Fields {
                 ));
             }
         }
-        Ok(Some(Fields(
-            names.iter().map(|n| n.as_bytes().to_vec()).collect(),
-        )))
-    }
-
-    /// Copy `line` (one JSON object and its newline) keeping only the named fields.
-    fn keep(&self, line: &[u8], out: &mut Vec<u8>) {
-        out.push(b'{');
-        let mut first = true;
-        for (k, v) in top_level(line) {
-            if self.0.iter().any(|f| f.as_slice() == k) {
-                if !first {
-                    out.push(b',');
-                }
-                first = false;
-                out.push(b'"');
-                out.extend_from_slice(k);
-                out.extend_from_slice(b"\":");
-                out.extend_from_slice(v);
-            }
-        }
-        out.extend_from_slice(b"}\n");
+        Ok(Some(Fields(names.to_vec())))
     }
 }
 
@@ -234,11 +217,7 @@ impl Counter<'_> {
                 if self.json {
                     match self.fields {
                         None => json::append_report(&mut done.out, input, &report),
-                        Some(f) => {
-                            let mut full = Vec::with_capacity(2048);
-                            json::append_report(&mut full, input, &report);
-                            f.keep(&full, &mut done.out);
-                        }
+                        Some(f) => json::append_report_fields(&mut done.out, input, &report, &f.0),
                     }
                 } else {
                     let _ = text::write_report(&mut done.out, input, &report, self.ascii);
@@ -253,24 +232,6 @@ impl Counter<'_> {
                 done.rejected = true;
             }
         }
-    }
-
-    /// Count a chunk of lines on `threads` threads; the results come back in input order.
-    fn chunk(&self, lines: &[(usize, Line)], threads: usize) -> Vec<Done> {
-        let per = lines.len().div_ceil(threads.max(1)).max(1);
-        if threads <= 1 || lines.len() < 64 {
-            return vec![self.run(lines)];
-        }
-        std::thread::scope(|s| {
-            let handles: Vec<_> = lines
-                .chunks(per)
-                .map(|part| s.spawn(move || self.run(part)))
-                .collect();
-            handles
-                .into_iter()
-                .map(|h| h.join().unwrap_or_default())
-                .collect()
-        })
     }
 
     fn run(&self, lines: &[(usize, Line)]) -> Done {
@@ -305,6 +266,130 @@ fn emit(done: Done, out: &mut impl Write) -> Result<bool, CliError> {
     Ok(done.rejected)
 }
 
+/// Read, count and write at once: this thread reads chunks of lines, `threads` workers count
+/// them, and a writer puts the results out in input order as they come.
+fn pipeline(
+    counter: &Counter,
+    reader: &mut (dyn BufRead + Send),
+    threads: usize,
+    out: &mut impl Write,
+) -> Result<bool, CliError> {
+    use std::sync::mpsc;
+    use std::sync::Mutex;
+    let (work_tx, work_rx) = mpsc::sync_channel::<(usize, Vec<(usize, Line)>)>(threads * 2);
+    let (done_tx, done_rx) = mpsc::sync_channel::<(usize, Done)>(threads * 2);
+    let work_rx = Mutex::new(work_rx);
+    // set when the output fails (a closed pipe): the reader stops, the workers run dry
+    let stop = std::sync::atomic::AtomicBool::new(false);
+    std::thread::scope(|s| -> Result<bool, CliError> {
+        for _ in 0..threads.max(1) {
+            let done_tx = done_tx.clone();
+            let work_rx = &work_rx;
+            s.spawn(move || loop {
+                let next = match work_rx.lock() {
+                    Ok(rx) => rx.recv(),
+                    Err(_) => return,
+                };
+                let Ok((seq, lines)) = next else {
+                    return;
+                };
+                if done_tx.send((seq, counter.run(&lines))).is_err() {
+                    return;
+                }
+            });
+        }
+        drop(done_tx);
+        let stop = &stop;
+        let reading = s.spawn(move || {
+            let r = read_chunks(reader, |seq, lines| {
+                !stop.load(std::sync::atomic::Ordering::Relaxed)
+                    && work_tx.send((seq, lines)).is_ok()
+            });
+            drop(work_tx);
+            r
+        });
+        // this thread writes: results in sequence order, whatever order the workers finish in
+        let mut waiting = std::collections::BTreeMap::new();
+        let mut next = 0usize;
+        let mut any = false;
+        let mut wrote: Result<(), CliError> = Ok(());
+        for (seq, done) in done_rx {
+            if wrote.is_err() {
+                continue; // drain what is in flight so no worker waits on a full channel
+            }
+            waiting.insert(seq, done);
+            while let Some(d) = waiting.remove(&next) {
+                next += 1;
+                match emit(d, out) {
+                    Ok(r) => any |= r,
+                    Err(e) => {
+                        stop.store(true, std::sync::atomic::Ordering::Relaxed);
+                        wrote = Err(e);
+                        waiting.clear();
+                        break;
+                    }
+                }
+            }
+        }
+        let read = reading
+            .join()
+            .unwrap_or_else(|_| Err(CliError::Failure(anyhow::anyhow!("the reader stopped"))));
+        wrote?;
+        read?;
+        Ok(any)
+    })
+}
+
+/// Read the batch input into numbered chunks of lines and hand each to `send` (false: stop).
+fn read_chunks(
+    reader: &mut (dyn BufRead + Send),
+    mut send: impl FnMut(usize, Vec<(usize, Line)>) -> bool,
+) -> Result<(), CliError> {
+    let mut raw = Vec::with_capacity(256);
+    let mut number = 0usize;
+    let mut seq = 0usize;
+    let mut lines: Vec<(usize, Line)> = Vec::with_capacity(CHUNK);
+    loop {
+        let got = read_bounded(reader, &mut raw, MAX_LINE).context("reading the batch input")?;
+        let end = got.is_none();
+        if let Some(len) = got {
+            number += 1;
+            let mut bytes = raw.as_slice();
+            if number == 1 {
+                // a byte-order mark from a Windows editor or spreadsheet export
+                bytes = bytes.strip_prefix(b"\xef\xbb\xbf").unwrap_or(bytes);
+            }
+            let line = if len > MAX_LINE {
+                let head = &bytes[..bytes.len().min(EXCERPT)];
+                Some(Line::TooLong(len, excerpt(&String::from_utf8_lossy(head))))
+            } else {
+                match std::str::from_utf8(bytes) {
+                    Ok(t) => {
+                        let f = t.trim();
+                        (!f.is_empty() && !f.starts_with('#')).then(|| Line::Text(f.to_string()))
+                    }
+                    Err(_) => Some(Line::NotUtf8(String::from_utf8_lossy(bytes).into_owned())),
+                }
+            };
+            if let Some(l) = line {
+                lines.push((number, l));
+            }
+        }
+        if lines.len() >= CHUNK || (end && !lines.is_empty()) {
+            if !send(
+                seq,
+                std::mem::replace(&mut lines, Vec::with_capacity(CHUNK)),
+            ) {
+                return Ok(());
+            }
+            seq += 1;
+        }
+        if end {
+            return Ok(());
+        }
+    }
+}
+
 /// Count formulas from the arguments and/or a batch file.
 pub fn count(args: &CountArgs, ascii: bool) -> Outcome {
     if args.formulas.is_empty() && args.batch.is_none() {
@@ -329,8 +414,8 @@ pub fn count(args: &CountArgs, ascii: bool) -> Outcome {
         any_rejected |= emit(done, &mut out)?;
     }
     if let Some(path) = &args.batch {
-        let mut reader: Box<dyn BufRead> = if path.as_os_str() == "-" {
-            Box::new(io::BufReader::with_capacity(1 << 16, io::stdin().lock()))
+        let mut reader: Box<dyn BufRead + Send> = if path.as_os_str() == "-" {
+            Box::new(io::BufReader::with_capacity(1 << 16, io::stdin()))
         } else {
             let meta = std::fs::metadata(path)
                 .with_context(|| format!("cannot open batch file {}", path.display()))?;
@@ -345,47 +430,7 @@ pub fn count(args: &CountArgs, ascii: bool) -> Outcome {
             Box::new(io::BufReader::with_capacity(1 << 16, file))
         };
         let threads = std::thread::available_parallelism().map_or(1, |n| n.get());
-        let mut raw = Vec::with_capacity(256);
-        let mut number = 0usize;
-        let mut lines: Vec<(usize, Line)> = Vec::with_capacity(CHUNK);
-        loop {
-            let got =
-                read_bounded(&mut reader, &mut raw, MAX_LINE).context("reading the batch input")?;
-            let end = got.is_none();
-            if let Some(len) = got {
-                number += 1;
-                let mut bytes = raw.as_slice();
-                if number == 1 {
-                    // a byte-order mark from a Windows editor or spreadsheet export
-                    bytes = bytes.strip_prefix(b"\xef\xbb\xbf").unwrap_or(bytes);
-                }
-                let line = if len > MAX_LINE {
-                    let head = &bytes[..bytes.len().min(EXCERPT)];
-                    Some(Line::TooLong(len, excerpt(&String::from_utf8_lossy(head))))
-                } else {
-                    match std::str::from_utf8(bytes) {
-                        Ok(t) => {
-                            let f = t.trim();
-                            (!f.is_empty() && !f.starts_with('#'))
-                                .then(|| Line::Text(f.to_string()))
-                        }
-                        Err(_) => Some(Line::NotUtf8(String::from_utf8_lossy(bytes).into_owned())),
-                    }
-                };
-                if let Some(l) = line {
-                    lines.push((number, l));
-                }
-            }
-            if lines.len() >= CHUNK || (end && !lines.is_empty()) {
-                for done in counter.chunk(&lines, threads) {
-                    any_rejected |= emit(done, &mut out)?;
-                }
-                lines.clear();
-            }
-            if end {
-                break;
-            }
-        }
+        any_rejected |= pipeline(&counter, reader.as_mut(), threads, &mut out)?;
     }
     out.flush().context("writing results")?;
     Ok(if any_rejected {

@@ -23,6 +23,27 @@ pub fn append_report(buf: &mut Vec<u8>, input: &str, report: &Report) {
     buf.push(b'\n');
 }
 
+/// A count line with only the named top-level fields (`count --fields`).
+pub fn append_report_fields(buf: &mut Vec<u8>, input: &str, report: &Report, keep: &[String]) {
+    let wants = |k: &str| keep.iter().any(|x| x == k);
+    buf.push(b'{');
+    let mut first = true;
+    if wants("schema") {
+        buf.extend_from_slice(b"\"schema\":1");
+        first = false;
+    }
+    if wants("input") {
+        if !first {
+            buf.push(b',');
+        }
+        buf.extend_from_slice(b"\"input\":");
+        jsonw::string(buf, input);
+        first = false;
+    }
+    jsonw::report_fields_only(buf, report, Some(keep), first);
+    buf.push(b'\n');
+}
+
 #[derive(Serialize)]
 struct ErrorLine<'a> {
     schema: u32,

@@ -13,18 +13,40 @@ use crate::chem::Frac;
 pub struct Json<'a> {
     buf: &'a mut Vec<u8>,
     first: bool,
+    /// Only these keys are written (`count --fields`); None: all.
+    keep: Option<&'a [String]>,
 }
 
 impl<'a> Json<'a> {
     /// Start an object (the caller has written nothing yet).
     pub fn object(buf: &'a mut Vec<u8>) -> Json<'a> {
         buf.push(b'{');
-        Json { buf, first: true }
+        Json {
+            buf,
+            first: true,
+            keep: None,
+        }
     }
 
     /// Continue an object already opened, with fields written before.
     pub fn resume(buf: &'a mut Vec<u8>) -> Json<'a> {
-        Json { buf, first: false }
+        Json {
+            buf,
+            first: false,
+            keep: None,
+        }
+    }
+
+    /// Write only the keys in `keep` from here on.
+    pub fn only(mut self, keep: Option<&'a [String]>) -> Json<'a> {
+        self.keep = keep;
+        self
+    }
+
+    /// Whether `k` is written.
+    #[inline(always)]
+    fn wants(&self, k: &str) -> bool {
+        self.keep.is_none_or(|f| f.iter().any(|x| x == k))
     }
 
     pub fn end(self) {
@@ -48,24 +70,36 @@ impl<'a> Json<'a> {
 
     #[inline(always)]
     pub fn str(&mut self, k: &str, v: &str) {
+        if !self.wants(k) {
+            return;
+        }
         self.key(k);
         string(self.buf, v);
     }
 
     #[inline(always)]
     pub fn int(&mut self, k: &str, v: i64) {
+        if !self.wants(k) {
+            return;
+        }
         self.key(k);
         int(self.buf, v);
     }
 
     #[inline(always)]
     pub fn frac(&mut self, k: &str, v: Frac) {
+        if !self.wants(k) {
+            return;
+        }
         self.key(k);
         frac(self.buf, v);
     }
 
     #[inline(always)]
     pub fn bool(&mut self, k: &str, v: bool) {
+        if !self.wants(k) {
+            return;
+        }
         self.key(k);
         self.buf
             .extend_from_slice(if v { b"true" } else { b"false" });
@@ -73,12 +107,18 @@ impl<'a> Json<'a> {
 
     #[inline(always)]
     pub fn null(&mut self, k: &str) {
+        if !self.wants(k) {
+            return;
+        }
         self.key(k);
         self.buf.extend_from_slice(b"null");
     }
 
     #[inline(always)]
     pub fn strs<'s>(&mut self, k: &str, v: impl IntoIterator<Item = &'s str>) {
+        if !self.wants(k) {
+            return;
+        }
         self.key(k);
         self.buf.push(b'[');
         for (i, s) in v.into_iter().enumerate() {
@@ -92,6 +132,9 @@ impl<'a> Json<'a> {
 
     /// A nested array whose items the closure writes, one call per item.
     pub fn array<T>(&mut self, k: &str, items: &[T], mut each: impl FnMut(&mut Vec<u8>, &T)) {
+        if !self.wants(k) {
+            return;
+        }
         self.key(k);
         self.buf.push(b'[');
         for (i, item) in items.iter().enumerate() {
@@ -206,12 +249,21 @@ fn metal(buf: &mut Vec<u8>, m: &MetalReport) {
 
 /// The report's fields, continuing an object whose first fields the caller wrote.
 pub fn report_fields(buf: &mut Vec<u8>, r: &Report) {
-    let mut o = Json::resume(buf);
+    report_fields_only(buf, r, None, false);
+}
+
+/// The report's fields named in `keep` (all when None); `first`: nothing written before them
+/// in the object.
+pub fn report_fields_only(buf: &mut Vec<u8>, r: &Report, keep: Option<&[String]>, first: bool) {
+    let mut o = Json::resume(buf).only(keep);
+    o.first = first;
     o.str("formula", &r.formula);
     o.int("charge", r.charge as i64);
-    match &r.composition {
-        Some(c) => o.str("composition", &c.to_string()),
-        None => o.null("composition"),
+    if o.wants("composition") {
+        match &r.composition {
+            Some(c) => o.str("composition", &c.to_string()),
+            None => o.null("composition"),
+        }
     }
     o.array("metals", &r.metals, metal);
     match r.metal_metal_bonds {
@@ -233,6 +285,7 @@ pub fn report_fields(buf: &mut Vec<u8>, r: &Report) {
     o.bool("spin_ambiguous", r.spin_ambiguous);
     match r.spin_basis.1 {
         None => o.str("spin_basis", r.spin_basis.0),
+        Some(_) if !o.wants("spin_basis") => {}
         Some(regime) => {
             let mut basis = String::with_capacity(r.spin_basis.0.len() + regime.len() + 2);
             basis.push_str(r.spin_basis.0);

@@ -299,3 +299,37 @@ fn a_parallel_batch_keeps_input_order() {
         want.iter().filter(|f| f.starts_with("Xq")).count()
     );
 }
+
+#[test]
+fn ligand_set_text_is_escaped_on_stdout() {
+    // a user ligand set whose name carries an escape sequence is listed with it escaped
+    let s = Scratch::new("evilset");
+    s.user_set(
+        "evil.toml",
+        r#"
+[[ligand]]
+key = "Qvv"
+name = "quiet ligand \u001b]0;title\u0007 with a bell"
+formula = "P(CH3)3"
+family = "phosphine"
+
+[[ligand.mode]]
+label = "κ1"
+class = "L"
+"#,
+    );
+    let r = s.run(&["ligands", "Qvv"]);
+    assert!(
+        r.stdout.contains("quiet ligand \\x1b]0;title\\x07"),
+        "{:?}",
+        r.stdout
+    );
+    assert!(
+        !r.stdout.contains('\u{1b}') && !r.stdout.contains('\u{7}'),
+        "{:?}",
+        r.stdout
+    );
+    assert!(!r.stderr.contains('\u{1b}'), "{:?}", r.stderr);
+    let r = s.run(&["count", "Pd(Qvv)2Cl2"]);
+    assert!(!r.stdout.contains('\u{1b}'), "{:?}", r.stdout);
+}

@@ -220,7 +220,9 @@ impl Counter<'_> {
                         Some(f) => json::append_report_fields(&mut done.out, input, &report, &f.0),
                     }
                 } else {
-                    let _ = text::write_report(&mut done.out, input, &report, self.ascii);
+                    let mut t = Vec::with_capacity(1024);
+                    let _ = text::write_report(&mut t, input, &report, self.ascii);
+                    let _ = diag::write_clean(&mut done.out, &t);
                 }
             }
             Err(e) => {

@@ -22,7 +22,27 @@ pub fn ascii() -> bool {
 /// Text as it may be shown: control characters (other than the line breaks of the message
 /// itself) written as `\x1b`, `\u{9b}`; ASCII spelling when asked.
 pub fn show(text: &str) -> String {
-    let mut out = String::with_capacity(text.len());
+    let out = escape_controls(text);
+    if ascii() {
+        crate::plain::ascii_text(&out)
+    } else {
+        out.into_owned()
+    }
+}
+
+/// Write text to stdout-bound `out` with control characters escaped.
+pub fn write_clean(out: &mut impl std::io::Write, bytes: &[u8]) -> std::io::Result<()> {
+    let text = String::from_utf8_lossy(bytes);
+    out.write_all(escape_controls(&text).as_bytes())
+}
+
+/// Text bound for stdout with its control characters escaped (line breaks kept); borrowed
+/// when there are none, the usual case.
+pub fn escape_controls(text: &str) -> std::borrow::Cow<'_, str> {
+    if text.chars().all(|c| !c.is_control() || c == '\n') {
+        return std::borrow::Cow::Borrowed(text);
+    }
+    let mut out = String::with_capacity(text.len() + 8);
     for c in text.chars() {
         if c.is_control() && c != '\n' {
             if (c as u32) < 0x100 {
@@ -34,11 +54,7 @@ pub fn show(text: &str) -> String {
             out.push(c);
         }
     }
-    if ascii() {
-        crate::plain::ascii_text(&out)
-    } else {
-        out
-    }
+    std::borrow::Cow::Owned(out)
 }
 
 /// A single line of input shown in a message: also its line breaks escaped.

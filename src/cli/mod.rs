@@ -578,7 +578,11 @@ fn sessions(json_out: bool, data_dir: Option<&std::path::Path>) -> Outcome {
     let stdout = io::stdout();
     let mut out = BufWriter::new(stdout.lock());
     if list.is_empty() && !json_out {
-        writeln!(out, "no sessions yet in {}", dir.display())?;
+        writeln!(
+            out,
+            "no sessions yet in {}",
+            diag::escape_controls(&dir.display().to_string())
+        )?;
     }
     for s in &list {
         if json_out {
@@ -588,11 +592,11 @@ fn sessions(json_out: bool, data_dir: Option<&std::path::Path>) -> Outcome {
             writeln!(
                 out,
                 "{:<28} {:>5} variants  {:>3} bookmarks  {}  {}{}",
-                s.name,
+                diag::escape_controls(&s.name),
                 s.variants,
                 s.bookmarks,
                 s.modified,
-                s.latest_formula.as_deref().unwrap_or("-"),
+                diag::escape_controls(s.latest_formula.as_deref().unwrap_or("-")),
                 if s.problems > 0 {
                     "  (damaged lines skipped)"
                 } else {
@@ -727,7 +731,9 @@ fn step(args: &StepArgs, ascii: bool, data_dir: Option<&std::path::Path>) -> Out
                     json::append_step(&mut buf, &input, &o, variant.as_ref());
                     out.write_all(&buf)?;
                 } else {
-                    text::write_step(&mut out, &o, ascii)?;
+                    let mut t = Vec::new();
+                    text::write_step(&mut t, &o, ascii)?;
+                    diag::write_clean(&mut out, &t)?;
                     if let Some((name, id)) = &variant {
                         writeln!(out, "  recorded as variant {id} of session {name}\n")?;
                     }
@@ -774,7 +780,9 @@ fn ligands(query: &str, json: bool, ascii: bool) -> Outcome {
         if json {
             json::write_ligand(&mut out, &h.ligand)?;
         } else {
-            text::write_ligand(&mut out, &h.ligand, ascii)?;
+            let mut t = Vec::new();
+            text::write_ligand(&mut t, &h.ligand, ascii)?;
+            diag::write_clean(&mut out, &t)?;
         }
     }
     out.flush()?;
@@ -805,7 +813,9 @@ fn substrates(query: &str, json: bool) -> Outcome {
         if json {
             json::write_substrate(&mut out, d)?;
         } else {
-            text::write_substrate(&mut out, d)?;
+            let mut t = Vec::new();
+            text::write_substrate(&mut t, d)?;
+            diag::write_clean(&mut out, &t)?;
         }
     }
     out.flush()?;

@@ -1,6 +1,7 @@
 //! Sessions lose nothing on odd input or hostile surroundings: a full disk mid-record, ids at
 //! the integer limit, parent links that loop, bookmarks to nothing, records from a newer
-//! nonet, logs that are links, a data directory that is a file.
+//! nonet, logs that are links, a data directory that is a file, and trees deep enough to
+//! make a careless export quadratic.
 
 mod common;
 
@@ -482,4 +483,61 @@ fn a_session_directory_that_is_a_file_is_an_error() {
         Err(SessionError::NotADirectory(_))
     ));
     let _ = std::fs::remove_dir_all(&data);
+}
+
+fn chain(n: usize) -> Session {
+    let mut s = Session::in_memory("deep");
+    let made: Vec<_> = ["Cp2Fe", "Cp2Co", "Cp2Ru"]
+        .iter()
+        .map(|f| {
+            let c = parse(f, cat()).expect("formula");
+            let r = count(&c);
+            (c, r)
+        })
+        .collect();
+    let mut parent = None;
+    for i in 0..n {
+        let (c, r) = &made[i % made.len()];
+        let change = if parent.is_none() {
+            Change::Start
+        } else {
+            Change::Edit
+        };
+        parent = Some(s.commit(parent, "edit", c, r, change).expect("commit"));
+    }
+    s
+}
+
+/// A 100,000-deep chain exports to Markdown in size linear in its length (indentation by
+/// depth made it about 15 GB), and quickly.
+#[test]
+fn markdown_export_is_linear_in_depth() {
+    let n = 100_000;
+    let s = chain(n);
+    let start = std::time::Instant::now();
+    let md = export::markdown(&s, &Scope::Tree);
+    let elapsed = start.elapsed();
+    let rows = md.lines().filter(|l| l.starts_with("| ")).count();
+    assert_eq!(rows, n + 1);
+    assert!(
+        md.len() < n * 400,
+        "{} bytes for {n} variants: not linear",
+        md.len()
+    );
+    let half = export::markdown(&chain(n / 2), &Scope::Tree);
+    let ratio = md.len() as f64 / half.len() as f64;
+    assert!(
+        (1.8..2.2).contains(&ratio),
+        "size ratio {ratio} for twice the depth"
+    );
+    assert!(md.contains("·×99999 "), "deep rows show their depth");
+    let path = export::markdown(&s, &Scope::Path(n as u64 - 1));
+    assert!(path.len() < n * 400);
+    let csv = export::csv(&s, &Scope::Tree);
+    assert_eq!(csv.lines().count(), n + 1);
+    eprintln!(
+        "markdown of a {n}-deep chain: {} bytes in {elapsed:?}",
+        md.len()
+    );
+    assert!(elapsed < std::time::Duration::from_secs(30));
 }

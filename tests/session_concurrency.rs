@@ -136,7 +136,7 @@ fn commit_from_threads(path: &Path, threads: usize, each: usize, locks: bool) ->
             let path = path.to_path_buf();
             std::thread::spawn(move || {
                 let file = nonet::session::log::open_append(&path).expect("open");
-                let file: Box<dyn LogFile + Send> = if locks {
+                let file: Box<dyn LogFile + Send + Sync> = if locks {
                     Box::new(file)
                 } else {
                     Box::new(NoLock(file))

@@ -127,6 +127,7 @@ fn a_change_after_another_writer_hit_a_full_disk_is_not_lost() {
 struct Tight {
     file: std::fs::File,
     room: std::sync::Arc<std::sync::atomic::AtomicI64>,
+    sync_fails: std::sync::Arc<std::sync::atomic::AtomicBool>,
 }
 
 impl session::LogFile for Tight {
@@ -154,6 +155,9 @@ impl session::LogFile for Tight {
         self.file.write_all(bytes)
     }
     fn sync(&mut self) -> std::io::Result<()> {
+        if self.sync_fails.load(std::sync::atomic::Ordering::SeqCst) {
+            return Err(std::io::Error::other("Input/output error"));
+        }
         self.file.sync_data()
     }
 }
@@ -165,6 +169,7 @@ fn the_commit_after_a_failed_one_is_recorded() {
     let dir = temp_dir("tight");
     let path = dir.join("t.jsonl");
     let room = std::sync::Arc::new(std::sync::atomic::AtomicI64::new(-1));
+    let sync_fails = std::sync::Arc::new(std::sync::atomic::AtomicBool::new(false));
     let file = nonet::session::log::open_append(&path).expect("open");
     let mut s = Session::with_log_file(
         "t",
@@ -172,6 +177,7 @@ fn the_commit_after_a_failed_one_is_recorded() {
         Box::new(Tight {
             file,
             room: room.clone(),
+            sync_fails: sync_fails.clone(),
         }),
     )
     .expect("session");
@@ -191,6 +197,15 @@ fn the_commit_after_a_failed_one_is_recorded() {
     );
     assert_eq!(back.variants, s.variants);
     assert_eq!(back.problems.len(), 1, "the torn record is reported");
+    // a failed sync is an error too; if the bytes reach the log after all, they show up as
+    // this session's own change, not as another process's
+    sync_fails.store(true, std::sync::atomic::Ordering::SeqCst);
+    let c = parse("Cp2Os", cat()).expect("formula");
+    let unsure = s.commit(Some(id), "sync fails", &c, &count(&c), Change::Edit);
+    assert!(unsure.is_err(), "a change is recorded only once durable");
+    sync_fails.store(false, std::sync::atomic::Ordering::SeqCst);
+    assert!(s.refresh().expect("refresh").is_empty());
+    assert_eq!(s.last().map(|v| v.action.as_str()), Some("sync fails"));
     let _ = std::fs::remove_dir_all(&dir);
 }
 

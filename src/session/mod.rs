@@ -94,7 +94,7 @@ pub struct Session {
     /// Problems met reading the log (a torn record, a damaged line, a duplicate id, a parent
     /// link that goes nowhere, a newer format), each with its line.
     pub problems: Vec<LogProblem>,
-    writer: Option<log::Writer<Box<dyn LogFile + Send>>>,
+    writer: Option<log::Writer<Box<dyn LogFile + Send + Sync>>>,
     /// Kept in memory only: records are taken as written.
     memory: bool,
     /// Variant id -> position in `variants`, so a 10,000-variant session loads in linear time.
@@ -112,6 +112,8 @@ pub struct Session {
     unseen: Vec<u64>,
     /// Uids of this process's records taken in before they were read back from the log.
     unread: HashSet<String>,
+    /// Uids of this process's records whose write failed (their bytes may still show up).
+    failed: HashSet<String>,
     /// Variant -> the earlier variant on its path it is the same species as, for all at once.
     closes: OnceLock<HashMap<u64, u64>>,
 }
@@ -158,6 +160,7 @@ impl Session {
             lines_read: 0,
             unseen: Vec::new(),
             unread: HashSet::new(),
+            failed: HashSet::new(),
             closes: OnceLock::new(),
         }
     }

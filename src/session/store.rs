@@ -55,7 +55,7 @@ impl Session {
     pub fn with_log_file(
         name: &str,
         path: &Path,
-        file: Box<dyn LogFile + Send>,
+        file: Box<dyn LogFile + Send + Sync>,
     ) -> Result<Session, SessionError> {
         let mut s = Session::empty(name, path);
         s.writer = Some(log::Writer::new(file, path));
@@ -121,20 +121,23 @@ impl Session {
 
     fn write_locked(&mut self, record: &Record) -> io::Result<()> {
         self.read_new(None)?;
-        if let Record::Variant { uid: Some(u), .. } = record {
-            if self.uids.contains_key(u) {
-                return Ok(()); // written already
-            }
-        }
         for _ in 0..2 {
             let stamped = self.stamp(record);
             let uid = match &stamped {
                 Record::Variant { uid, .. } => uid.clone(),
                 Record::Bookmark { .. } => None,
             };
-            match self.writer.as_mut() {
-                Some(w) => w.append(&stamped)?,
+            let appended = match self.writer.as_mut() {
+                Some(w) => w.append(&stamped),
                 None => return Err(io::Error::other("the session was opened read-only")),
+            };
+            if let Err(e) = appended {
+                // its bytes may still reach the log (a sync that failed): if they are read
+                // later they are this process's, not another's
+                if let Some(u) = uid {
+                    self.failed.insert(u);
+                }
+                return Err(e);
             }
             // read it back, with whatever another writer slipped in before it
             if self.read_new(uid.as_deref()).is_err() {
@@ -244,7 +247,10 @@ impl Session {
             };
             let id = self.take(record, line);
             if let (true, false, Some(id)) = (variant, known, id) {
-                if uid.as_deref().is_none_or(|u| Some(u) != mine) {
+                let own = uid
+                    .as_ref()
+                    .is_some_and(|u| Some(u.as_str()) == mine || self.failed.contains(u));
+                if !own {
                     self.unseen.push(id);
                 }
             }

@@ -43,6 +43,8 @@ fn bench(c: &mut Criterion) {
             made_by: Some("edit".into()),
             enters: Vec::new(),
             leaves: Vec::new(),
+            uid: None,
+            parent_uid: None,
         };
         serde_json::to_writer(&mut f, &r).expect("write");
         f.write_all(b"\n").expect("write");

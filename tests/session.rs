@@ -225,10 +225,10 @@ fn the_cli_lists_and_exports_sessions_and_records_steps() {
     assert_eq!(out.status.code(), Some(2));
 }
 
-/// A child commits steps one after another and is killed with SIGKILL at a random moment;
-/// every step it reported committed must be in the log, and the log must load.
+/// Two children commit steps to one session at once and are killed with SIGKILL at random
+/// moments; every step either reported committed must be in the log, and the log must load.
 #[test]
-fn a_process_killed_at_any_moment_loses_no_committed_change() {
+fn processes_killed_at_any_moment_lose_no_committed_change() {
     let steps: Vec<&str> = (0..3000)
         .map(|i| if i % 2 == 0 { "oxidation" } else { "reduction" })
         .collect();
@@ -236,45 +236,57 @@ fn a_process_killed_at_any_moment_loses_no_committed_change() {
         .duration_since(std::time::UNIX_EPOCH)
         .map_or(7, |d| d.subsec_nanos() as u64)
         | 1;
-    let mut committed = 0;
-    for round in 0..6 {
-        let data = temp_dir("crash");
+    let mut next = move || {
         // xorshift: a kill time between 5 and 400 ms
         seed ^= seed << 13;
         seed ^= seed >> 7;
         seed ^= seed << 17;
-        let wait = Duration::from_millis(5 + seed % 395);
-        let mut child = nonet(&data)
-            .args(["step", "--json", "--session", "crash", "Cp2Fe"])
-            .args(&steps)
-            .stdout(Stdio::piped())
-            .stderr(Stdio::null())
-            .spawn()
-            .expect("spawn");
-        let stdout = child.stdout.take().expect("stdout");
-        let reader = std::thread::spawn(move || {
-            let mut ids = Vec::new();
-            for line in BufReader::new(stdout).lines() {
-                let Ok(line) = line else { break };
-                if let Ok(v) = serde_json::from_str::<serde_json::Value>(&line) {
-                    if let Some(id) = v["variant"].as_u64() {
-                        ids.push(id);
+        Duration::from_millis(5 + seed % 395)
+    };
+    let mut committed = [0usize; 2];
+    for round in 0..6 {
+        let data = temp_dir("crash");
+        let writers: Vec<_> = ["Cp2Fe", "Cp2Co"]
+            .iter()
+            .map(|formula| {
+                let mut child = nonet(&data)
+                    .args(["step", "--json", "--session", "crash", formula])
+                    .args(&steps)
+                    .stdout(Stdio::piped())
+                    .stderr(Stdio::null())
+                    .spawn()
+                    .expect("spawn");
+                let stdout = child.stdout.take().expect("stdout");
+                let reader = std::thread::spawn(move || {
+                    let mut ids = Vec::new();
+                    for line in BufReader::new(stdout).lines() {
+                        let Ok(line) = line else { break };
+                        if let Ok(v) = serde_json::from_str::<serde_json::Value>(&line) {
+                            if let Some(id) = v["variant"].as_u64() {
+                                ids.push(id);
+                            }
+                        }
                     }
-                }
-            }
-            ids
-        });
+                    ids
+                });
+                (child, reader, next())
+            })
+            .collect();
         let start = Instant::now();
-        while start.elapsed() < wait {
-            if child.try_wait().ok().flatten().is_some() {
-                break;
+        let mut reported = Vec::new();
+        for (w, (mut child, reader, wait)) in writers.into_iter().enumerate() {
+            while start.elapsed() < wait {
+                if child.try_wait().ok().flatten().is_some() {
+                    break;
+                }
+                std::thread::sleep(Duration::from_millis(1));
             }
-            std::thread::sleep(Duration::from_millis(1));
+            let _ = child.kill(); // SIGKILL
+            let _ = child.wait();
+            let ids = reader.join().expect("reader");
+            committed[w] += ids.len();
+            reported.extend(ids);
         }
-        let _ = child.kill(); // SIGKILL
-        let _ = child.wait();
-        let reported = reader.join().expect("reader");
-        committed += reported.len();
         let log = data.join("sessions").join("crash.jsonl");
         if !log.exists() {
             // killed before the session was created: then nothing may have been reported
@@ -291,9 +303,15 @@ fn a_process_killed_at_any_moment_loses_no_committed_change() {
                 "round {round}: variant {id} was reported committed but is not in the log"
             );
         }
+        let ids: std::collections::HashSet<u64> = reported.iter().copied().collect();
+        assert_eq!(
+            ids.len(),
+            reported.len(),
+            "round {round}: an id reported twice"
+        );
         assert!(
             s.problems.iter().all(|p| p.message.contains("cut off")),
-            "round {round}: only a torn last record may be skipped: {:?}",
+            "round {round}: only torn records may be skipped: {:?}",
             s.problems
         );
         // the session opens again and takes more commits
@@ -303,5 +321,8 @@ fn a_process_killed_at_any_moment_loses_no_committed_change() {
         let _ = std::fs::remove_dir_all(&data);
     }
     // the kills must land while changes are being committed, or the test proves nothing
-    assert!(committed > 0, "no change was committed before the kills");
+    assert!(
+        committed.iter().all(|&n| n > 0),
+        "a writer committed nothing before the kills: {committed:?}"
+    );
 }

@@ -169,3 +169,60 @@ fn the_screening_view_ranks_swaps_and_opens_the_preview() {
     assert_eq!(p.after_report.metals[0].electron_count.as_int(), Some(16));
     let _ = std::fs::remove_dir_all(&dir);
 }
+
+/// Another process (a script recording steps) adds variants while the planner is open: the
+/// planner says so when the tree opens and after its own next commit, and shows them.
+#[test]
+fn the_planner_notices_variants_another_process_added() {
+    let (mut app, dir) = planner("IrCl(CO)(PPh3)2", "others");
+    let c = nonet::chem::parse("Cp2Fe", app.cat.as_ref()).expect("formula");
+    let r = nonet::chem::count(&c);
+    let mut other = Session::open(&dir, "t").expect("a second session on the log");
+    let mut parent = Some(0);
+    for i in 0..2 {
+        parent = Some(
+            other
+                .commit(
+                    parent,
+                    &format!("script {i}"),
+                    &c,
+                    &r,
+                    nonet::session::Change::Edit,
+                )
+                .expect("commit"),
+        );
+    }
+    press(&mut app, "t");
+    assert_eq!(app.mode, Mode::Tree);
+    let notice = app
+        .notice
+        .as_ref()
+        .map(|n| n.text.clone())
+        .unwrap_or_default();
+    assert!(
+        notice.contains("2 variants added by another process"),
+        "{notice}"
+    );
+    let s = app.log.session.as_ref().expect("session");
+    assert_eq!(s.tree().len(), 3, "the tree shows them");
+    press(&mut app, "<esc>");
+    // one more from the script, then a commit here: the id follows theirs, and it is said
+    other
+        .commit(parent, "script 2", &c, &r, nonet::session::Change::Edit)
+        .expect("commit");
+    press(&mut app, "/PMe3<enter>");
+    let notice = app
+        .notice
+        .as_ref()
+        .map(|n| n.text.clone())
+        .unwrap_or_default();
+    assert!(
+        notice.contains("(variant 4); 1 variant added by another process"),
+        "{notice}"
+    );
+    assert_eq!(app.log.variant, Some(4));
+    let back = Session::load(&dir.join("t.jsonl")).expect("load");
+    assert_eq!(back.variants.len(), 5);
+    assert_eq!(back.get(4).and_then(|v| v.parent), Some(0));
+    let _ = std::fs::remove_dir_all(&dir);
+}

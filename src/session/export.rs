@@ -61,8 +61,42 @@ fn signed(v: &Value) -> String {
     }
 }
 
+/// Deeper than this, a row shows its depth as a number instead of one mark per level, so the
+/// table grows linearly with the tree however deep it is.
+const MAX_INDENT: usize = 8;
+
+/// The marks before a change: one per level, or the depth in figures past `MAX_INDENT`.
+fn indent(depth: usize) -> String {
+    if depth <= MAX_INDENT {
+        "· ".repeat(depth)
+    } else {
+        format!("·×{depth} ")
+    }
+}
+
+/// A cycle's path, "#1 → #2 → #3"; a long one keeps its ends and counts the rest.
+fn cycle_path(ids: &[u64]) -> String {
+    const ENDS: usize = 4;
+    let show = |part: &[u64]| {
+        part.iter()
+            .map(|i| format!("#{i}"))
+            .collect::<Vec<_>>()
+            .join(" → ")
+    };
+    if ids.len() <= 3 * ENDS {
+        show(ids)
+    } else {
+        format!(
+            "{} → … {} more … → {}",
+            show(&ids[..ENDS]),
+            ids.len() - 2 * ENDS,
+            show(&ids[ids.len() - ENDS..])
+        )
+    }
+}
+
 /// A Markdown table, indented by depth in the tree, then the closed cycles with their net
-/// reactions.
+/// reactions. Its size is linear in the number of variants, whatever the depth.
 pub fn markdown(s: &Session, scope: &Scope) -> String {
     let mut out = format!("## nonet session `{}`\n\n", s.name);
     out.push_str(
@@ -84,7 +118,7 @@ pub fn markdown(s: &Session, scope: &Scope) -> String {
             "| {} | {} | {}{}{}{} | {} | {} | `{}` | {} | {} | {} | {} | {} | {} | {} |\n",
             v.id,
             v.parent.map_or(String::new(), |p| p.to_string()),
-            "· ".repeat(*depth),
+            indent(*depth),
             cell(&v.action),
             made,
             closes,
@@ -105,15 +139,9 @@ pub fn markdown(s: &Session, scope: &Scope) -> String {
     if !cycles.is_empty() {
         out.push_str("\n### Closed cycles\n\n");
         for (from, to) in cycles {
-            let path: Vec<String> = s
-                .path_to(to)
-                .into_iter()
-                .skip_while(|&i| i != from)
-                .map(|i| format!("#{i}"))
-                .collect();
             out.push_str(&format!(
                 "- {}: net {}\n",
-                path.join(" → "),
+                cycle_path(&s.path_between(from, to)),
                 s.net(from, to).text()
             ));
         }
@@ -162,11 +190,7 @@ pub fn json(s: &Session, scope: &Scope) -> String {
                     })
                     .collect()
             };
-            let path: Vec<u64> = s
-                .path_to(to)
-                .into_iter()
-                .skip_while(|&i| i != from)
-                .collect();
+            let path = s.path_between(from, to);
             json!({
                 "from": from,
                 "to": to,

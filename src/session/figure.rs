@@ -10,11 +10,7 @@ use super::{Made, Session, Variant};
 /// The variants a figure shows: the closed cycle that ends at `id`, else the path to it.
 pub fn cycle_ids(s: &Session, id: u64) -> Vec<u64> {
     match s.closes(id) {
-        Some(from) => s
-            .path_to(id)
-            .into_iter()
-            .skip_while(|&i| i != from)
-            .collect(),
+        Some(from) => s.path_between(from, id),
         None => s.path_to(id),
     }
 }

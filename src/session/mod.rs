@@ -7,15 +7,21 @@
 pub mod export;
 pub mod figure;
 pub mod log;
+mod store;
 
+use std::collections::{HashMap, HashSet};
 use std::io;
 use std::path::{Path, PathBuf};
+use std::sync::OnceLock;
 
 use crate::chem::cycle::{self, Net};
 use crate::chem::molecule::Molecule;
 use crate::chem::species::{Equation, Species, Term};
 use crate::chem::{Complex, Report};
-pub use log::{Counts, LogProblem, Record, SpeciesRecord};
+pub use log::{Counts, LogFile, LogProblem, Record, SpeciesRecord};
+pub use store::{
+    check_export_target, check_name, is_session_log, list, new_name, session_dir, try_list, Summary,
+};
 
 /// How a variant came about.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -61,7 +67,12 @@ pub enum Change<'a> {
 /// One committed state of the working complex.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Variant {
+    /// The number users see and type: the stored id, unless an earlier record already had it
+    /// (two writers at once), in which case the next free number (the same on every load,
+    /// since the log only grows).
     pub id: u64,
+    /// The parent's number; always a variant recorded before this one (a link that pointed
+    /// elsewhere is dropped when the log is read, and reported).
     pub parent: Option<u64>,
     pub time: String,
     pub action: String,
@@ -70,6 +81,8 @@ pub struct Variant {
     pub made: Made,
     pub enters: Vec<SpeciesRecord>,
     pub leaves: Vec<SpeciesRecord>,
+    /// The record's unique identifier (none in logs written before it was recorded).
+    pub uid: Option<String>,
 }
 
 /// A session's tree, and the log it is written to.
@@ -78,53 +91,58 @@ pub struct Session {
     pub path: PathBuf,
     pub variants: Vec<Variant>,
     pub bookmarks: Vec<(u64, String)>,
-    /// Problems met reading the log (a torn last record, a damaged line).
+    /// Problems met reading the log (a torn record, a damaged line, a duplicate id, a parent
+    /// link that goes nowhere, a newer format), each with its line.
     pub problems: Vec<LogProblem>,
-    writer: Option<log::Writer>,
+    writer: Option<log::Writer<Box<dyn LogFile + Send + Sync>>>,
     /// Kept in memory only: records are taken as written.
     memory: bool,
     /// Variant id -> position in `variants`, so a 10,000-variant session loads in linear time.
-    index: std::collections::HashMap<u64, usize>,
+    index: HashMap<u64, usize>,
+    /// Variant uid -> position in `variants`.
+    uids: HashMap<String, usize>,
+    /// The largest id in the tree, and a point below which every id is taken (for choosing
+    /// ids once the largest is u64::MAX).
+    max_id: Option<u64>,
+    free_from: u64,
+    /// How much of the log has been read: bytes and complete lines.
+    read_to: u64,
+    lines_read: usize,
+    /// Variants other processes added, read since `refresh` last reported them.
+    unseen: Vec<u64>,
+    /// Uids of this process's records taken in before they were read back from the log.
+    unread: HashSet<String>,
+    /// Uids of this process's records whose write failed (their bytes may still show up).
+    failed: HashSet<String>,
+    /// Variant -> the earlier variant on its path it is the same species as, for all at once.
+    closes: OnceLock<HashMap<u64, u64>>,
 }
 
 /// Why a session cannot be used.
 #[derive(Debug, thiserror::Error)]
 pub enum SessionError {
-    #[error("'{0}' is not a session name: use letters, digits, '.', '_' and '-'")]
+    #[error(
+        "'{0}' is not a session name: use up to 100 letters, digits, '.', '_' and '-', not \
+         starting with '.'"
+    )]
     BadName(String),
     #[error("no session '{0}' in {1}; `nonet sessions` lists them")]
     NotFound(String, String),
     #[error("session log {0}: {1}")]
     Io(String, io::Error),
+    #[error(
+        "the session directory {0} is a file, not a directory: move the file aside, or point \
+         NONET_DATA_DIR (or --data-dir) somewhere else"
+    )]
+    NotADirectory(String),
+    #[error(
+        "{0} is the log of session '{1}': writing there would destroy it; choose another \
+         output file"
+    )]
+    WouldOverwriteLog(String, String),
 }
 
 impl Session {
-    /// Open a session for writing, creating its log if it does not exist yet.
-    pub fn open(dir: &Path, name: &str) -> Result<Session, SessionError> {
-        let path = log_path(dir, name)?;
-        let mut s = if path.exists() {
-            Session::load(&path)?
-        } else {
-            Session::empty(name, &path)
-        };
-        let writer = log::Writer::open(&path)
-            .map_err(|e| SessionError::Io(path.display().to_string(), e))?;
-        s.writer = Some(writer);
-        Ok(s)
-    }
-
-    /// Open an existing session for writing.
-    pub fn open_existing(dir: &Path, name: &str) -> Result<Session, SessionError> {
-        let path = log_path(dir, name)?;
-        if !path.exists() {
-            return Err(SessionError::NotFound(
-                name.into(),
-                dir.display().to_string(),
-            ));
-        }
-        Session::open(dir, name)
-    }
-
     fn empty(name: &str, path: &Path) -> Session {
         Session {
             name: name.to_string(),
@@ -134,39 +152,41 @@ impl Session {
             problems: Vec::new(),
             writer: None,
             memory: false,
-            index: std::collections::HashMap::new(),
+            index: HashMap::new(),
+            uids: HashMap::new(),
+            max_id: None,
+            free_from: 0,
+            read_to: 0,
+            lines_read: 0,
+            unseen: Vec::new(),
+            unread: HashSet::new(),
+            failed: HashSet::new(),
+            closes: OnceLock::new(),
         }
     }
 
-    /// Read a session's log without opening it for writing.
-    pub fn load(path: &Path) -> Result<Session, SessionError> {
-        let (records, problems) =
-            log::read(path).map_err(|e| SessionError::Io(path.display().to_string(), e))?;
-        let name = path
-            .file_stem()
-            .and_then(|s| s.to_str())
-            .unwrap_or("session")
-            .to_string();
-        let mut s = Session::empty(&name, path);
-        s.problems = problems;
-        s.replay(records);
-        Ok(s)
+    /// A session kept in memory only (the planner's tests, a planner without a log).
+    pub fn in_memory(name: &str) -> Session {
+        Session {
+            memory: true,
+            ..Session::empty(name, Path::new(name))
+        }
     }
 
     /// Rebuild the tree from records in log order.
     pub fn replay(&mut self, records: Vec<Record>) {
         for r in records {
-            if let Record::Variant { id, .. } = &r {
-                if self.get(*id).is_some() {
-                    continue; // a duplicate id cannot come from this writer; keep the first
-                }
-            }
-            self.admit(r);
+            self.take(r, None);
         }
     }
 
     pub fn get(&self, id: u64) -> Option<&Variant> {
         self.index.get(&id).map(|&i| &self.variants[i])
+    }
+
+    /// The variant a record's uid names.
+    pub fn by_uid(&self, uid: &str) -> Option<&Variant> {
+        self.uids.get(uid).map(|&i| &self.variants[i])
     }
 
     /// The most recently committed variant.
@@ -208,8 +228,9 @@ impl Session {
         Ok(self.admit(record))
     }
 
-    /// The record a committed change will be, with the next free id; nothing is written and
-    /// the tree is unchanged until `admit` (after the record is durable).
+    /// The record a committed change will be, with a fresh uid and the next free id as this
+    /// process sees it (`write` draws the id again from the log's latest state); nothing is
+    /// written and the tree is unchanged until `admit` (after the record is durable).
     pub fn prepare(
         &self,
         parent: Option<u64>,
@@ -218,7 +239,6 @@ impl Session {
         report: &Report,
         change: Change,
     ) -> Record {
-        let id = self.index.keys().map(|&v| v + 1).max().unwrap_or(0);
         let (made, enters, leaves) = match change {
             Change::Start => (Made::Start, Vec::new(), Vec::new()),
             Change::Edit => (Made::Edit, Vec::new(), Vec::new()),
@@ -226,7 +246,7 @@ impl Session {
         };
         Record::Variant {
             nonet_session: log::FORMAT,
-            id,
+            id: self.next_id(),
             parent,
             time: log::now(),
             action: action.to_string(),
@@ -235,12 +255,39 @@ impl Session {
             made_by: Some(made.word().to_string()),
             enters,
             leaves,
+            uid: Some(log::unique_id()),
+            parent_uid: parent.and_then(|p| self.get(p)).and_then(|v| v.uid.clone()),
+        }
+    }
+
+    /// The id a new variant gets: one more than the largest, or (past u64::MAX) the smallest
+    /// free one.
+    fn next_id(&self) -> u64 {
+        match self.max_id {
+            None => 0,
+            Some(m) => m.checked_add(1).unwrap_or_else(|| {
+                let mut id = self.free_from;
+                while self.index.contains_key(&id) {
+                    id = id.wrapping_add(1);
+                }
+                id
+            }),
         }
     }
 
     /// Take a record into the tree (a variant, or a bookmark); gives the variant's id. A
-    /// variant with an id already in the tree replaces it.
+    /// variant already in the tree (the same uid) is not taken twice; one whose id is taken by
+    /// another variant gets the next free id.
     pub fn admit(&mut self, record: Record) -> u64 {
+        let asked = match &record {
+            Record::Variant { id, .. } | Record::Bookmark { id, .. } => *id,
+        };
+        self.take(record, None).unwrap_or(asked)
+    }
+
+    /// Admit a record read from line `line` of the log (None: not from the log), reporting
+    /// what had to be worked around. Gives the id of the variant it is or names.
+    fn take(&mut self, record: Record, line: Option<usize>) -> Option<u64> {
         match record {
             Record::Variant {
                 id,
@@ -252,54 +299,115 @@ impl Session {
                 made_by,
                 enters,
                 leaves,
+                uid,
+                parent_uid,
                 ..
             } => {
+                if let Some(&at) = uid.as_ref().and_then(|u| self.uids.get(u)) {
+                    let known = self.variants[at].id;
+                    self.note(line, || {
+                        format!("a second copy of variant {known}; the copy is skipped")
+                    });
+                    return Some(known);
+                }
+                // the parent must be recorded before the child: then links cannot loop
+                let by_uid = parent_uid
+                    .as_ref()
+                    .map(|u| self.uids.get(u).map(|&at| self.variants[at].id));
+                let resolved = match (by_uid, parent) {
+                    (Some(Some(p)), _) => Some(p),
+                    (None, Some(p)) if self.index.contains_key(&p) => Some(p),
+                    (_, None) => None,
+                    (_, Some(p)) => {
+                        self.note(line, || {
+                            if p == id {
+                                format!(
+                                    "variant {id} names itself as its parent; it is shown as \
+                                     a start of the tree"
+                                )
+                            } else {
+                                format!(
+                                    "variant {id} names parent {p}, which is not recorded \
+                                     before it (a loop of parent links, or a damaged or \
+                                     edited log); it is shown as a start of the tree"
+                                )
+                            }
+                        });
+                        None
+                    }
+                };
+                let id = if self.index.contains_key(&id) {
+                    let fresh = self.next_id();
+                    self.note(line, || {
+                        format!(
+                            "variant id {id} is already used by an earlier record (two programs \
+                             wrote at once, or the log was edited); this one is shown as \
+                             variant {fresh}"
+                        )
+                    });
+                    fresh
+                } else {
+                    id
+                };
                 let variant = Variant {
                     made: Made::read(made_by.as_deref(), parent, &action),
                     id,
-                    parent,
+                    parent: resolved,
                     time,
                     action,
                     formula,
                     counts,
                     enters,
                     leaves,
+                    uid,
                 };
-                match self.index.get(&id) {
-                    Some(&at) => self.variants[at] = variant,
-                    None => {
-                        self.index.insert(id, self.variants.len());
-                        self.variants.push(variant);
-                    }
+                let at = self.variants.len();
+                self.index.insert(id, at);
+                if let Some(u) = &variant.uid {
+                    self.uids.insert(u.clone(), at);
                 }
-                id
+                self.variants.push(variant);
+                self.max_id = Some(self.max_id.map_or(id, |m| m.max(id)));
+                while self.index.contains_key(&self.free_from) && self.free_from < u64::MAX {
+                    self.free_from += 1;
+                }
+                self.closes = OnceLock::new();
+                Some(id)
             }
-            Record::Bookmark { id, name, .. } => {
-                self.bookmarks.retain(|(i, _)| *i != id);
-                self.bookmarks.push((id, name));
-                id
+            Record::Bookmark {
+                id,
+                name,
+                variant_uid,
+                ..
+            } => {
+                let target = match variant_uid.as_ref().and_then(|u| self.uids.get(u)) {
+                    Some(&at) => Some(self.variants[at].id),
+                    None => self.index.contains_key(&id).then_some(id),
+                };
+                match target {
+                    Some(t) => {
+                        self.bookmarks.retain(|(i, _)| *i != t);
+                        self.bookmarks.push((t, name));
+                    }
+                    None => self.note(line, || {
+                        format!(
+                            "bookmark '{name}' names variant {id}, which is not recorded \
+                             before it; the bookmark is ignored"
+                        )
+                    }),
+                }
+                target
             }
         }
     }
 
-    /// Append a record to the log, synced to disk before this returns.
-    pub fn write(&mut self, record: &Record) -> Result<(), SessionError> {
-        let path = self.path.display().to_string();
-        match &mut self.writer {
-            None if self.memory => Ok(()),
-            Some(w) => w.append(record).map_err(|e| SessionError::Io(path, e)),
-            None => Err(SessionError::Io(
-                path,
-                io::Error::other("the session was opened read-only"),
-            )),
-        }
-    }
-
-    /// A session kept in memory only (the planner's tests, a planner without a log).
-    pub fn in_memory(name: &str) -> Session {
-        Session {
-            memory: true,
-            ..Session::empty(name, Path::new(name))
+    /// Report a problem with line `line` of the log (nothing for records not from the log).
+    fn note(&mut self, line: Option<usize>, message: impl FnOnce() -> String) {
+        if let Some(line) = line {
+            self.problems.push(LogProblem {
+                line,
+                message: message(),
+            });
         }
     }
 
@@ -318,6 +426,7 @@ impl Session {
             id,
             name: name.to_string(),
             time: log::now(),
+            variant_uid: None,
         }
     }
 
@@ -328,7 +437,7 @@ impl Session {
         while let Some(p) = at {
             depth += 1;
             if depth > self.variants.len() {
-                break; // a cycle cannot be written by nonet; do not loop on a hand-edited log
+                break; // parents come before children, so this is only a guard
             }
             at = self.get(p).and_then(|v| v.parent);
         }
@@ -350,27 +459,74 @@ impl Session {
         path
     }
 
+    /// Ids from `from` down to `to`, both included; empty if `from` is not on the path to
+    /// `to`. Takes time in the length of that stretch, not the depth of `to`.
+    pub fn path_between(&self, from: u64, to: u64) -> Vec<u64> {
+        let mut path = vec![to];
+        let mut at = to;
+        while at != from {
+            match self.get(at).and_then(|v| v.parent) {
+                Some(p) if path.len() <= self.variants.len() => {
+                    path.push(p);
+                    at = p;
+                }
+                _ => return Vec::new(),
+            }
+        }
+        path.reverse();
+        path
+    }
+
     /// The earlier variant on its path that `id` is the same species as (the cycle it
     /// closes), if any: the nearest one.
     pub fn closes(&self, id: u64) -> Option<u64> {
-        let v = self.get(id)?;
-        let path = self.path_to(id);
-        path[..path.len().saturating_sub(1)]
-            .iter()
-            .rev()
-            .find(|&&a| self.get(a).is_some_and(|x| x.formula == v.formula))
+        self.closes
+            .get_or_init(|| self.all_closures())
+            .get(&id)
             .copied()
     }
 
+    /// `closes` for every variant in one walk of the tree, keeping the variants on the current
+    /// path by formula: linear in the size of the session, whatever its depth.
+    fn all_closures(&self) -> HashMap<u64, u64> {
+        let mut out = HashMap::new();
+        let mut path: Vec<&Variant> = Vec::new();
+        let mut on_path: HashMap<&str, Vec<u64>> = HashMap::new();
+        for (depth, v) in self.tree() {
+            while path.len() > depth {
+                if let Some(gone) = path.pop() {
+                    if let Some(ids) = on_path.get_mut(gone.formula.as_str()) {
+                        ids.pop();
+                    }
+                }
+            }
+            if let Some(&earlier) = on_path.get(v.formula.as_str()).and_then(|ids| ids.last()) {
+                out.insert(v.id, earlier);
+            }
+            on_path.entry(v.formula.as_str()).or_default().push(v.id);
+            path.push(v);
+        }
+        out
+    }
+
     /// The net reaction of the steps from `from` (exclusive) down to `to` (inclusive) on one
-    /// path, with the changes that were not steps.
+    /// path, with the changes that were not steps; the whole path to `to` if `from` is not on
+    /// it.
     pub fn net(&self, from: u64, to: u64) -> PathNet {
-        let path = self.path_to(to);
-        let start = path.iter().position(|&i| i == from).map_or(0, |p| p + 1);
+        let mut ids = Vec::new();
+        let mut at = Some(to);
+        while let Some(i) = at {
+            if i == from || ids.len() > self.variants.len() {
+                break;
+            }
+            ids.push(i);
+            at = self.get(i).and_then(|v| v.parent);
+        }
+        ids.reverse();
         let mut equations = Vec::new();
         let mut edits = 0;
         let mut unrecorded = 0;
-        for &i in &path[start..] {
+        for i in ids {
             let Some(v) = self.get(i) else { continue };
             match v.made {
                 Made::Step => equations.push(Equation {
@@ -409,14 +565,13 @@ impl Session {
             .rev()
             .map(|v| (0, v))
             .collect();
-        let mut children: std::collections::HashMap<u64, Vec<&Variant>> =
-            std::collections::HashMap::new();
+        let mut children: HashMap<u64, Vec<&Variant>> = HashMap::new();
         for v in &self.variants {
             if let Some(p) = v.parent {
                 children.entry(p).or_default().push(v);
             }
         }
-        let mut seen = std::collections::HashSet::new();
+        let mut seen = HashSet::new();
         while let Some((depth, v)) = stack.pop() {
             if !seen.insert(v.id) {
                 continue;
@@ -524,85 +679,4 @@ pub fn counts(r: &Report) -> Counts {
             unpaired_electrons: None,
         },
     }
-}
-
-fn log_path(dir: &Path, name: &str) -> Result<PathBuf, SessionError> {
-    let ok = !name.is_empty()
-        && name.len() <= 100
-        && !name.starts_with('.')
-        && name
-            .chars()
-            .all(|c| c.is_ascii_alphanumeric() || matches!(c, '.' | '_' | '-'));
-    if !ok {
-        return Err(SessionError::BadName(name.to_string()));
-    }
-    Ok(dir.join(format!("{name}.jsonl")))
-}
-
-/// Where sessions live: `$NONET_DATA_DIR/sessions`, else the platform data directory.
-pub fn session_dir(data_dir: Option<&Path>) -> Option<PathBuf> {
-    let base = match data_dir {
-        Some(d) => Some(d.to_path_buf()),
-        None => match std::env::var_os("NONET_DATA_DIR") {
-            Some(v) if !v.is_empty() => Some(PathBuf::from(v)),
-            _ => {
-                directories::ProjectDirs::from("", "", "nonet").map(|p| p.data_dir().to_path_buf())
-            }
-        },
-    };
-    base.map(|b| b.join("sessions"))
-}
-
-/// A line of `nonet sessions`.
-#[derive(Debug, Clone, serde::Serialize)]
-pub struct Summary {
-    pub name: String,
-    pub variants: usize,
-    pub bookmarks: usize,
-    pub modified: String,
-    pub latest_formula: Option<String>,
-    pub problems: usize,
-    #[serde(skip)]
-    pub mtime: std::time::SystemTime,
-}
-
-/// Every session in `dir`, most recently changed first.
-pub fn list(dir: &Path) -> Vec<Summary> {
-    let Ok(rd) = std::fs::read_dir(dir) else {
-        return Vec::new();
-    };
-    let mut out: Vec<Summary> = rd
-        .filter_map(Result::ok)
-        .map(|e| e.path())
-        .filter(|p| p.extension().is_some_and(|x| x == "jsonl"))
-        .filter_map(|p| {
-            let mtime = std::fs::metadata(&p).and_then(|m| m.modified()).ok()?;
-            let s = Session::load(&p).ok()?;
-            let secs = mtime
-                .duration_since(std::time::UNIX_EPOCH)
-                .map_or(0, |d| d.as_secs() as i64);
-            Some(Summary {
-                name: s.name.clone(),
-                variants: s.variants.len(),
-                bookmarks: s.bookmarks.len(),
-                modified: log::timestamp(secs),
-                latest_formula: s.last().map(|v| v.formula.clone()),
-                problems: s.problems.len(),
-                mtime,
-            })
-        })
-        .collect();
-    out.sort_by(|a, b| b.mtime.cmp(&a.mtime).then(a.name.cmp(&b.name)));
-    out
-}
-
-/// A fresh session name from the clock: "plan-20261201-225001".
-pub fn new_name() -> String {
-    let t = log::now();
-    let digits: String = t.chars().filter(|c| c.is_ascii_digit()).collect();
-    format!(
-        "plan-{}-{}",
-        &digits[..8.min(digits.len())],
-        &digits[8.min(digits.len())..]
-    )
 }

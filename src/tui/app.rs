@@ -344,7 +344,8 @@ impl App {
                 if let Some(s) = self.log.session.as_mut() {
                     let id = s.admit(record);
                     self.log.variant = Some(id);
-                    self.notice(&format!("done: {label} (variant {id})"), false);
+                    let others = others_added(s);
+                    self.notice(&format!("done: {label} (variant {id}){others}"), false);
                 }
             }
             (Effect::Record { label, .. }, Err(e)) => {
@@ -1139,10 +1140,11 @@ impl App {
     }
 
     fn open_tree(&mut self) {
-        let Some(s) = &self.log.session else {
+        let Some(s) = self.log.session.as_mut() else {
             self.notice("this planner keeps no session (no data directory)", true);
             return;
         };
+        let others = others_added(s);
         let tree = s.tree();
         self.log.row = self
             .log
@@ -1150,6 +1152,9 @@ impl App {
             .and_then(|v| tree.iter().position(|(_, x)| x.id == v))
             .unwrap_or(0);
         self.mode = Mode::Tree;
+        if let Some(text) = others.strip_prefix("; ") {
+            self.notice(text, false);
+        }
     }
 
     /// The variant under the tree cursor.
@@ -1302,6 +1307,20 @@ impl App {
             text: text.to_string(),
             error,
         });
+    }
+}
+
+/// "; 2 variants added by another process" when the session's log has grown under another
+/// process since it was last read (nothing for a session kept in memory).
+fn others_added(s: &mut Session) -> String {
+    match s.refresh() {
+        Ok(ids) if ids.is_empty() => String::new(),
+        Ok(ids) => format!(
+            "; {} variant{} added by another process",
+            ids.len(),
+            if ids.len() == 1 { "" } else { "s" }
+        ),
+        Err(e) => format!("; the log could not be read again: {e}"),
     }
 }
 

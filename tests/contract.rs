@@ -333,3 +333,39 @@ class = "L"
     let r = s.run(&["count", "Pd(Qvv)2Cl2"]);
     assert!(!r.stdout.contains('\u{1b}'), "{:?}", r.stdout);
 }
+
+#[test]
+fn the_data_directory_is_a_boundary() {
+    let s = Scratch::new("boundary");
+    let r = s.run(&["step", "--session", "mine", "Fe(CO)5", "dissociation CO"]);
+    assert_eq!(r.code, Some(0), "{}", r.show());
+    let log = s.data().join("sessions").join("mine.jsonl");
+    assert!(log.exists());
+    let before = std::fs::read(&log).expect("log");
+    // export onto the session's own log is refused and the log is untouched
+    let target = log.to_str().expect("path");
+    let r = s.run(&["export", "mine", "-o", target]);
+    assert_eq!(r.code, Some(2), "{}", r.show());
+    assert!(r.stderr.contains("would destroy it"), "{}", r.stderr);
+    assert_eq!(std::fs::read(&log).expect("log"), before);
+    // names are checked like the other commands check them
+    for bad in ["../mine", ".hidden", "a/b"] {
+        let r = s.run(&["export", bad]);
+        assert_eq!(r.code, Some(2), "{bad}: {}", r.show());
+        assert!(r.stderr.contains("not a session name"), "{}", r.stderr);
+    }
+    // a data directory that is a file is an error, not "no sessions yet"
+    let file = s.write("not-a-dir", b"x");
+    let r = s
+        .cmd()
+        .env("NONET_DATA_DIR", &file)
+        .args(["sessions"])
+        .output()
+        .expect("run");
+    assert_eq!(r.status.code(), Some(1));
+    let err = String::from_utf8_lossy(&r.stderr);
+    assert!(
+        err.contains("not a directory") || err.contains("is a file"),
+        "{err}"
+    );
+}

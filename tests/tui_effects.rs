@@ -6,7 +6,7 @@ mod common;
 
 use common::keys::{events, planner_in_memory};
 use nonet::session::Record;
-use nonet::tui::effect::Effect;
+use nonet::tui::effect::{Done, Effect};
 use nonet::tui::App;
 use ratatui::crossterm::event::KeyEvent;
 
@@ -17,7 +17,15 @@ fn press_collect(app: &mut App, keys: &str, outcome: Result<(), String>) -> Vec<
         if let Some(a) = app.handle_key(KeyEvent::from(code)) {
             for e in app.apply(a) {
                 all.push(e.clone());
-                app.settle(e, outcome.clone());
+                let done = match e {
+                    Effect::Refresh => Ok(Done::Refreshed(Vec::new())),
+                    _ => outcome.clone().map(|()| Done::Written),
+                };
+                // what the App asks for next (a refresh after a record) goes well
+                for next in app.settle(e, done) {
+                    assert_eq!(next, Effect::Refresh);
+                    let _ = app.settle(next, Ok(Done::Refreshed(Vec::new())));
+                }
             }
         }
     }
@@ -78,8 +86,9 @@ fn export_asks_for_the_table_and_the_figure() {
         Ok(()),
     );
     let effects = press_collect(&mut app, "tw", Ok(()));
-    let [Effect::Write { files, .. }] = &effects[..] else {
-        panic!("one write expected: {effects:?}");
+    // opening the tree reads what other processes added; `w` writes
+    let [Effect::Refresh, Effect::Write { files, .. }] = &effects[..] else {
+        panic!("a refresh and one write expected: {effects:?}");
     };
     let names: Vec<String> = files
         .iter()
@@ -102,11 +111,24 @@ fn export_asks_for_the_table_and_the_figure() {
 }
 
 #[test]
+fn variants_from_another_process_are_announced() {
+    let mut app = planner_in_memory("RhCl(PPh3)3");
+    let follow = app.settle(Effect::Refresh, Ok(Done::Refreshed(vec![7, 8])));
+    assert!(follow.is_empty());
+    let n = app.notice.clone().expect("a notice");
+    assert!(
+        n.text.contains("2 variants added by another process"),
+        "{}",
+        n.text
+    );
+}
+
+#[test]
 fn a_bookmark_is_an_effect_too() {
     let mut app = planner_in_memory("IrCl(CO)(PPh3)2");
     let effects = press_collect(&mut app, "tbVaska start<enter>", Ok(()));
     assert!(
-        matches!(&effects[..], [Effect::Bookmark { .. }]),
+        matches!(&effects[..], [Effect::Refresh, Effect::Bookmark { .. }]),
         "{effects:?}"
     );
     let s = app.log.session.as_ref().expect("session");

@@ -96,7 +96,7 @@ pub struct PlanArgs {
     #[arg(value_name = "FORMULA")]
     pub formula: Option<String>,
     /// Open (or, with FORMULA, create) this session instead of starting a new one.
-    #[arg(long, value_name = "NAME")]
+    #[arg(long, value_name = "NAME", value_parser = parse::session_name)]
     pub session: Option<String>,
 }
 
@@ -115,7 +115,7 @@ pub enum ExportFormat {
 #[derive(Debug, Args)]
 pub struct ExportArgs {
     /// The session's name (see `nonet sessions`).
-    #[arg(value_name = "SESSION")]
+    #[arg(value_name = "SESSION", value_parser = parse::session_name)]
     pub session: String,
     #[arg(long, value_enum, default_value = "md", value_name = "FORMAT")]
     pub format: ExportFormat,
@@ -158,7 +158,7 @@ pub struct StepArgs {
     #[arg(value_name = "STEP", required = true)]
     pub steps: Vec<String>,
     /// Record every step, as it is taken, in this session (created if needed).
-    #[arg(long, value_name = "NAME")]
+    #[arg(long, value_name = "NAME", value_parser = parse::session_name)]
     pub session: Option<String>,
 }
 
@@ -329,6 +329,12 @@ mod parse {
         Shard::parse(text).ok_or_else(|| "takes K/N with 1 <= K <= N, e.g. 2/8".to_string())
     }
 
+    pub fn session_name(text: &str) -> Result<String, String> {
+        crate::session::check_name(text)
+            .map(|()| text.to_string())
+            .map_err(|e| e.to_string())
+    }
+
     pub fn family() -> clap::builder::PossibleValuesParser {
         clap::builder::PossibleValuesParser::new(crate::catalogue::FAMILIES)
     }
@@ -496,7 +502,11 @@ fn plan(args: &PlanArgs, ascii: bool, data_dir: Option<&std::path::Path>) -> Out
     let dir = crate::session::session_dir(data_dir);
     let name = match (session, &typed, &dir) {
         (Some(n), _, _) => Some(n.clone()),
-        (None, None, Some(d)) => crate::session::list(d).first().map(|s| s.name.clone()),
+        (None, None, Some(d)) => crate::session::try_list(d)
+            .map_err(|e| CliError::Failure(e.into()))?
+            .into_iter()
+            .find(|s| s.error.is_none())
+            .map(|s| s.name),
         _ => None,
     }
     .unwrap_or_else(crate::session::new_name);
@@ -574,7 +584,7 @@ fn sessions(json_out: bool, data_dir: Option<&std::path::Path>) -> Outcome {
     let Some(dir) = crate::session::session_dir(data_dir) else {
         return failed("no data directory: set NONET_DATA_DIR or use --data-dir");
     };
-    let list = crate::session::list(&dir);
+    let list = crate::session::try_list(&dir).map_err(|e| CliError::Failure(e.into()))?;
     let stdout = io::stdout();
     let mut out = BufWriter::new(stdout.lock());
     if list.is_empty() && !json_out {
@@ -597,10 +607,10 @@ fn sessions(json_out: bool, data_dir: Option<&std::path::Path>) -> Outcome {
                 s.bookmarks,
                 s.modified,
                 diag::escape_controls(s.latest_formula.as_deref().unwrap_or("-")),
-                if s.problems > 0 {
-                    "  (damaged lines skipped)"
-                } else {
-                    ""
+                match (&s.error, s.problems > 0) {
+                    (Some(e), _) => format!("  (cannot be read: {})", diag::escape_controls(e)),
+                    (None, true) => "  (damaged lines skipped)".to_string(),
+                    (None, false) => String::new(),
                 }
             )?;
         }
@@ -615,14 +625,20 @@ fn export(args: &ExportArgs, data_dir: Option<&std::path::Path>) -> Outcome {
     let Some(dir) = crate::session::session_dir(data_dir) else {
         return failed("no data directory: set NONET_DATA_DIR or use --data-dir");
     };
-    let file = dir.join(format!("{name}.jsonl"));
-    if !file.exists() {
-        return rejected(format!(
-            "no session '{name}' in {}; `nonet sessions` lists them",
-            dir.display()
-        ));
+    if let Some(p) = &args.output {
+        // an export onto a session's log would destroy it
+        if let Err(e) = crate::session::check_export_target(Some(&dir), p) {
+            return rejected(e.to_string());
+        }
     }
-    let s = crate::session::Session::load(&file)?;
+    let s = match crate::session::Session::load_existing(&dir, name) {
+        Ok(s) => s,
+        Err(
+            e @ (crate::session::SessionError::BadName(_)
+            | crate::session::SessionError::NotFound(..)),
+        ) => return rejected(e.to_string()),
+        Err(e) => return Err(e.into()),
+    };
     for p in &s.problems {
         diag::warning(&format!("{name}: line {}: {}", p.line, p.message));
     }
@@ -684,6 +700,9 @@ fn step(args: &StepArgs, ascii: bool, data_dir: Option<&std::path::Path>) -> Out
                 return failed("no data directory: set NONET_DATA_DIR or use --data-dir");
             };
             let mut s = crate::session::Session::open(&dir, name)?;
+            for p in &s.problems {
+                diag::warning(&format!("{name}: line {}: {}", p.line, p.message));
+            }
             // continue from the last variant when it is this complex, else record the start
             let canonical = complex.formula(false);
             let parent = match s.last() {

@@ -424,6 +424,14 @@ pub struct Summary {
 pub fn try_list(dir: &Path) -> Result<Vec<Summary>, SessionError> {
     match std::fs::metadata(dir) {
         Err(e) if e.kind() == io::ErrorKind::NotFound => return Ok(Vec::new()),
+        Err(e) if e.kind() == io::ErrorKind::NotADirectory => {
+            // name the file that stands where a directory should be
+            let file = dir
+                .ancestors()
+                .find(|a| std::fs::metadata(a).is_ok_and(|m| !m.is_dir()))
+                .unwrap_or(dir);
+            return Err(SessionError::NotADirectory(file.display().to_string()));
+        }
         Err(e) => return Err(io_error(dir, e)),
         Ok(m) if !m.is_dir() => return Err(SessionError::NotADirectory(dir.display().to_string())),
         Ok(_) => {}

@@ -6,7 +6,7 @@ use std::sync::Arc;
 use ratatui::crossterm::event::{KeyCode, KeyEvent, KeyEventKind, KeyModifiers};
 
 use super::action::Action;
-use super::effect::Effect;
+use super::effect::{Done, Effect};
 use super::keymap::{self, Context};
 use crate::catalogue::{Catalogue, FAMILIES};
 use crate::chem::edit::{Edit, Place, Slot};
@@ -338,20 +338,37 @@ impl App {
 
     /// Learn how an effect went: a recorded variant becomes the working one, a failed write
     /// is reported and nothing claims it was saved.
-    pub fn settle(&mut self, effect: Effect, outcome: Result<(), String>) {
+    pub fn settle(&mut self, effect: Effect, outcome: Result<Done, String>) -> Vec<Effect> {
         match (effect, outcome) {
-            (Effect::Record { record, label }, Ok(())) => {
+            (Effect::Record { record, label }, Ok(_)) => {
                 if let Some(s) = self.log.session.as_mut() {
                     let id = s.admit(record);
                     self.log.variant = Some(id);
-                    let others = others_added(s);
-                    self.notice(&format!("done: {label} (variant {id}){others}"), false);
+                    self.notice(&format!("done: {label} (variant {id})"), false);
+                    // another process may have written meanwhile
+                    self.effects.push(Effect::Refresh);
                 }
             }
+            (Effect::Refresh, Ok(Done::Refreshed(ids))) => {
+                if !ids.is_empty() {
+                    let others = format!(
+                        "{} variant{} added by another process",
+                        ids.len(),
+                        if ids.len() == 1 { "" } else { "s" }
+                    );
+                    let text = match &self.notice {
+                        Some(n) if !n.error => format!("{}; {others}", n.text),
+                        _ => others,
+                    };
+                    self.notice(&text, false);
+                }
+            }
+            (Effect::Refresh, Ok(Done::Written)) => {}
+            (Effect::Refresh, Err(e)) => self.notice(&e, true),
             (Effect::Record { label, .. }, Err(e)) => {
                 self.notice(&format!("{label} done here, but not recorded: {e}"), true)
             }
-            (Effect::Bookmark { record }, Ok(())) => {
+            (Effect::Bookmark { record }, Ok(_)) => {
                 if let Some(s) = self.log.session.as_mut() {
                     let id = s.admit(record);
                     let name = s.bookmark_of(id).unwrap_or_default().to_string();
@@ -361,9 +378,10 @@ impl App {
             (Effect::Bookmark { .. }, Err(e)) => {
                 self.notice(&format!("bookmark not recorded: {e}"), true)
             }
-            (Effect::Write { done, .. }, Ok(())) => self.notice(&done, false),
+            (Effect::Write { done, .. }, Ok(_)) => self.notice(&done, false),
             (Effect::Write { .. }, Err(e)) => self.notice(&e, true),
         }
+        std::mem::take(&mut self.effects)
     }
 
     fn act(&mut self, action: Action) {
@@ -1140,11 +1158,10 @@ impl App {
     }
 
     fn open_tree(&mut self) {
-        let Some(s) = self.log.session.as_mut() else {
+        let Some(s) = self.log.session.as_ref() else {
             self.notice("this planner keeps no session (no data directory)", true);
             return;
         };
-        let others = others_added(s);
         let tree = s.tree();
         self.log.row = self
             .log
@@ -1152,9 +1169,7 @@ impl App {
             .and_then(|v| tree.iter().position(|(_, x)| x.id == v))
             .unwrap_or(0);
         self.mode = Mode::Tree;
-        if let Some(text) = others.strip_prefix("; ") {
-            self.notice(text, false);
-        }
+        self.effects.push(Effect::Refresh);
     }
 
     /// The variant under the tree cursor.
@@ -1307,20 +1322,6 @@ impl App {
             text: text.to_string(),
             error,
         });
-    }
-}
-
-/// "; 2 variants added by another process" when the session's log has grown under another
-/// process since it was last read (nothing for a session kept in memory).
-fn others_added(s: &mut Session) -> String {
-    match s.refresh() {
-        Ok(ids) if ids.is_empty() => String::new(),
-        Ok(ids) => format!(
-            "; {} variant{} added by another process",
-            ids.len(),
-            if ids.len() == 1 { "" } else { "s" }
-        ),
-        Err(e) => format!("; the log could not be read again: {e}"),
     }
 }
 

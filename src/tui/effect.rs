@@ -20,13 +20,26 @@ pub enum Effect {
         files: Vec<(PathBuf, String)>,
         done: String,
     },
+    /// Read what other processes appended to the session's log since it was last read.
+    Refresh,
+}
+
+/// How an effect went, when it went well.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub enum Done {
+    Written,
+    /// Variants another process added, now in the tree.
+    Refreshed(Vec<u64>),
 }
 
 /// Carry out one effect; the error, in words, if it failed.
-pub fn perform(session: Option<&mut Session>, effect: &Effect) -> Result<(), String> {
+pub fn perform(session: Option<&mut Session>, effect: &Effect) -> Result<Done, String> {
     match effect {
         Effect::Record { record, .. } | Effect::Bookmark { record } => match session {
-            Some(s) => s.write(record).map_err(|e| e.to_string()),
+            Some(s) => s
+                .write(record)
+                .map(|()| Done::Written)
+                .map_err(|e| e.to_string()),
             None => Err("this planner keeps no session".into()),
         },
         Effect::Write { files, .. } => {
@@ -34,15 +47,24 @@ pub fn perform(session: Option<&mut Session>, effect: &Effect) -> Result<(), Str
                 std::fs::write(path, text)
                     .map_err(|e| format!("cannot write {}: {e}", path.display()))?;
             }
-            Ok(())
+            Ok(Done::Written)
         }
+        Effect::Refresh => match session {
+            Some(s) => s
+                .refresh()
+                .map(Done::Refreshed)
+                .map_err(|e| format!("the session log could not be read again: {e}")),
+            None => Ok(Done::Refreshed(Vec::new())),
+        },
     }
 }
 
-/// Carry out the effects of one action in order and report each outcome to the App.
+/// Carry out the effects of one action in order and report each outcome to the App (which may
+/// ask for more, such as a refresh after a record).
 pub fn run(app: &mut super::App, effects: Vec<Effect>) {
-    for e in effects {
+    let mut queue: std::collections::VecDeque<Effect> = effects.into();
+    while let Some(e) = queue.pop_front() {
         let outcome = perform(app.log.session.as_mut(), &e);
-        app.settle(e, outcome);
+        queue.extend(app.settle(e, outcome));
     }
 }

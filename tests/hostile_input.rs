@@ -88,3 +88,176 @@ fn count_refuses_d12_on_the_command_line() {
     assert!(err.contains("[Fe(CO)5]4-"), "names the formula: {err}");
     let _ = std::fs::remove_dir_all(&d);
 }
+
+// ---------------------------------------------------------------------------------------------
+// Structure files
+// ---------------------------------------------------------------------------------------------
+
+use nonet::chem::shape;
+use nonet::chem::structure::{self, MAX_ATOMS};
+
+#[test]
+fn an_absurd_atom_count_is_refused_before_anything_is_allocated() {
+    // usize::MAX wrapped the line check and asked for a vector of that many atoms
+    for count in [
+        "18446744073709551615",
+        "99999999999999999999999",
+        "1000000000000",
+    ] {
+        let text = format!("{count}\ncomment\nC 0 0 0\n");
+        let e = structure::parse(&text).expect_err(count);
+        assert_eq!(e.line, 1, "{count}: {e}");
+        assert!(e.message.contains("at most 20,000"), "{count}: {e}");
+        assert!(e.message.contains(count), "quotes the count: {e}");
+    }
+    let over = format!("{}\ncomment\nC 0 0 0\n", MAX_ATOMS + 1);
+    assert!(structure::parse(&over).is_err());
+    // a molfile counts line is checked the same way (it has three columns, so at most 999)
+    let mol = "x\n  y\n\n  0  0  0  0  0  0  0  0  0  0999 V2000\n";
+    assert!(structure::parse_molfile(mol)
+        .expect_err("no atoms")
+        .message
+        .contains("no atoms"));
+}
+
+#[test]
+fn sterics_refuses_an_absurd_count_with_the_limit_and_does_not_abort() {
+    let d = scratch("count");
+    let f = d.join("huge.xyz");
+    std::fs::write(&f, "18446744073709551615\nx\nP 0 0 0\n").expect("write");
+    let out = nonet(&d, &["sterics", f.to_str().expect("utf-8 path")]);
+    assert_eq!(out.status.code(), Some(2), "{}", stderr(&out));
+    let err = stderr(&out);
+    assert!(err.contains("huge.xyz: line 1"), "where: {err}");
+    assert!(err.contains("at most 20,000"), "the limit: {err}");
+    assert!(!err.contains("panicked"), "{err}");
+    let _ = std::fs::remove_dir_all(&d);
+}
+
+#[test]
+fn sterics_reads_a_bounded_prefix_of_an_endless_file() {
+    let d = scratch("zero");
+    let out = nonet(&d, &["sterics", "/dev/zero"]);
+    assert_eq!(out.status.code(), Some(2), "{}", stderr(&out));
+    assert!(
+        stderr(&out).contains("larger than 32 MiB"),
+        "{}",
+        stderr(&out)
+    );
+    let _ = std::fs::remove_dir_all(&d);
+}
+
+fn atoms(text: &str) -> Vec<structure::Atom> {
+    structure::parse(text).unwrap_or_else(|e| panic!("{e}"))
+}
+
+#[test]
+fn atoms_on_top_of_each_other_are_refused() {
+    let a = atoms("4\nclash\nPd 0 0 0\nP 0 0 2.28\nH 1.2 0 3.0\nH 1.2 0.05 3.0\n");
+    let e = shape::setup(&a, None, 2.28).expect_err("two H on one place");
+    assert!(e.contains("atoms 3 (H) and 4 (H)"), "{e}");
+    assert!(e.contains("on top of each other"), "{e}");
+    assert!(e.contains("remove the duplicate"), "{e}");
+    // with --donor as well
+    assert!(shape::setup(&a, Some(2), 2.28).is_err());
+}
+
+#[test]
+fn a_metal_on_the_donors_place_is_refused() {
+    let a = atoms("4\nx\nPd 0 0 2.0\nP 0 0 2.28\nH 1.4 0 2.6\nH -1.4 0 2.6\n");
+    for donor in [None, Some(2)] {
+        let e = shape::setup(&a, donor, 2.28).expect_err("metal 0.28 Å from the donor");
+        assert!(e.contains("Pd (atom 1)"), "{e}");
+        assert!(e.contains("0.28 Å from the donor P (atom 2)"), "{e}");
+    }
+}
+
+#[test]
+fn a_second_metal_is_not_taken_for_the_donor() {
+    let a = atoms("4\nx\nPd 0 0 0\nPd 0 0 2.2\nP 0 2.3 0\nH 0 3.7 0\n");
+    let e = shape::setup(&a, None, 2.28).expect_err("the nearest atom is a metal");
+    assert!(e.contains("another metal, Pd (atom 2)"), "{e}");
+    assert!(e.contains("--donor N"), "{e}");
+    // naming the ligand atom works
+    let s = shape::setup(&a, Some(3), 2.28).expect("P binds");
+    assert_eq!(s.donor_atom, 3);
+}
+
+#[test]
+fn atoms_packed_closer_than_any_molecule_are_refused() {
+    // a 13x13x13 block of hydrogens 0.35 Å apart: every atom "bonded" to dozens
+    let mut text = String::from("2198\ndense\nPd 0 0 -2.2\n");
+    for i in 0..13 {
+        for j in 0..13 {
+            for k in 0..13 {
+                text.push_str(&format!(
+                    "H {:.2} {:.2} {:.2}\n",
+                    i as f64 * 0.35,
+                    j as f64 * 0.35,
+                    k as f64 * 0.35
+                ));
+            }
+        }
+    }
+    let e = shape::setup(&atoms(&text), None, 2.28).expect_err("too dense");
+    assert!(e.contains("packed closer than in any molecule"), "{e}");
+}
+
+/// A phosphorus donor 2.28 Å above a metal at the origin and below a block of `n` carbons
+/// 1.54 Å apart, all bonded into one ligand: the worst case for all-pairs bond searches.
+fn carbon_block(n: usize) -> String {
+    let a = 1.54;
+    let r = (n as f64 * a * a * a * 3.0 / (4.0 * std::f64::consts::PI)).cbrt();
+    let centre = 3.9 + r;
+    let k = (r / a) as i64 + 2;
+    let mut lines = Vec::new();
+    for i in -k..=k {
+        for j in -k..=k {
+            for l in 0..=2 * k + 1 {
+                let p = [i as f64 * a, j as f64 * a, 3.9 + l as f64 * a];
+                if p[0] * p[0] + p[1] * p[1] + (p[2] - centre).powi(2) <= r * r {
+                    lines.push(format!("C {:.4} {:.4} {:.4}", p[0], p[1], p[2]));
+                }
+            }
+        }
+    }
+    format!(
+        "{}\ncarbon block\nPd 0 0 0\nP 0 0 2.28\n{}\n",
+        lines.len() + 2,
+        lines.join("\n")
+    )
+}
+
+#[test]
+fn a_large_ligand_gives_descriptors() {
+    let d = scratch("block");
+    let f = d.join("block.xyz");
+    std::fs::write(&f, carbon_block(2_000)).expect("write");
+    let start = std::time::Instant::now();
+    let out = nonet(&d, &["sterics", f.to_str().expect("utf-8 path"), "--json"]);
+    // all-pairs loops took half a minute here in a debug build; the cell list and the banded
+    // lattice keep it near a second
+    assert!(start.elapsed().as_secs() < 10, "took {:?}", start.elapsed());
+    assert!(out.status.success(), "{}", stderr(&out));
+    let v: serde_json::Value = serde_json::from_slice(&out.stdout).expect("json");
+    assert!(v["ligand_atoms"].as_u64().unwrap_or(0) > 1_900, "{v}");
+    let _ = std::fs::remove_dir_all(&d);
+}
+
+/// Times `nonet sterics` on a generated 10,000-atom ligand. Run with
+/// `cargo test --release --test hostile_input -- --ignored --nocapture`; all-pairs searches
+/// took 16 s here, the cell list and the banded lattice take about 0.15 s.
+#[test]
+#[ignore]
+fn sterics_on_ten_thousand_atoms_takes_well_under_a_few_seconds() {
+    let d = scratch("block10k");
+    let f = d.join("block10k.xyz");
+    std::fs::write(&f, carbon_block(10_000)).expect("write");
+    let start = std::time::Instant::now();
+    let out = nonet(&d, &["sterics", f.to_str().expect("utf-8 path"), "--json"]);
+    let took = start.elapsed();
+    assert!(out.status.success(), "{}", stderr(&out));
+    println!("sterics on a 10,000-atom ligand: {took:?}");
+    assert!(took.as_secs_f64() < 3.0, "took {took:?}");
+    let _ = std::fs::remove_dir_all(&d);
+}

@@ -261,3 +261,231 @@ fn sterics_on_ten_thousand_atoms_takes_well_under_a_few_seconds() {
     assert!(took.as_secs_f64() < 3.0, "took {took:?}");
     let _ = std::fs::remove_dir_all(&d);
 }
+
+// ---------------------------------------------------------------------------------------------
+// User ligand sets
+// ---------------------------------------------------------------------------------------------
+
+use nonet::catalogue::{Catalogue, MAX_SET_BYTES};
+
+/// One ligand entry with extra lines (fields) added at its end.
+fn entry(key: &str, extra: &str) -> String {
+    format!(
+        "[[ligand]]\nkey = \"{key}\"\nname = \"test {key}\"\nformula = \"{key}f\"\n\
+         family = \"phosphine\"\n{extra}\n[[ligand.mode]]\nlabel = \"κ1\"\nclass = \"L\"\n\n"
+    )
+}
+
+fn user_set(text: &str) -> Catalogue {
+    Catalogue::from_sets(Vec::new(), vec![("mine.toml".into(), text.into())])
+}
+
+#[test]
+fn an_unknown_field_drops_only_its_entry_and_names_it() {
+    let text = format!(
+        "{}{}{}",
+        entry("Qa1", ""),
+        entry("Qa2", "colour = \"red\""),
+        entry("Qa3", "")
+    );
+    let cat = user_set(&text);
+    assert!(
+        cat.get("Qa1").is_some() && cat.get("Qa3").is_some(),
+        "the rest loads"
+    );
+    assert!(cat.get("Qa2").is_none());
+    assert_eq!(cat.warnings.len(), 1, "{:?}", cat.warnings);
+    let w = &cat.warnings[0];
+    assert_eq!(w.key.as_deref(), Some("Qa2"));
+    let line = text
+        .lines()
+        .position(|l| l.contains("colour"))
+        .expect("line")
+        + 1;
+    assert_eq!(w.line, line, "{w}");
+    assert!(w.message.contains("colour"), "names the field: {w}");
+    assert!(w.message.contains("skipped"), "{w}");
+    // an unknown top-level field is ignored, not fatal
+    let cat = user_set(&format!("colour = 1\n{}", entry("Qa4", "")));
+    assert!(cat.get("Qa4").is_some(), "{:?}", cat.warnings);
+    assert!(cat.warnings[0].message.contains("'colour'"));
+}
+
+#[test]
+fn numbers_out_of_range_or_not_finite_are_refused() {
+    let src = "tep_source = \"test\"\ncone_angle_source = \"test\"";
+    let cases = [
+        ("Tn1", "tep = -inf", "tep = -inf"),
+        ("Tn2", "tep = nan", "tep = NaN"),
+        ("Tn3", "tep = inf", "tep = inf"),
+        ("Tn4", "tep = 20561", "1950-2150"),
+        ("Tn5", "cone_angle = 400.0", "30-360"),
+        ("Tn6", "cone_angle = -inf", "cone_angle = -inf"),
+        ("Tn7", "cone_angle = nan", "cone_angle = NaN"),
+    ];
+    let mut text = entry("Ok1", &format!("tep = 2056.1\ncone_angle = 182.0\n{src}"));
+    for (key, field, _) in cases {
+        text.push_str(&entry(key, &format!("{field}\n{src}")));
+    }
+    let cat = user_set(&text);
+    assert!(cat.get("Ok1").is_some(), "{:?}", cat.warnings);
+    for (key, field, shown) in cases {
+        assert!(cat.get(key).is_none(), "{field} must be refused");
+        let w = cat
+            .warnings
+            .iter()
+            .find(|w| w.key.as_deref() == Some(key))
+            .unwrap_or_else(|| panic!("no warning for {key}"));
+        assert!(w.message.contains(shown), "{w}");
+        let line = text
+            .lines()
+            .enumerate()
+            .skip_while(|(_, l)| !l.contains(&format!("\"{key}\"")))
+            .find(|(_, l)| *l == field)
+            .expect("the field's line")
+            .0
+            + 1;
+        assert_eq!(w.line, line, "points at the number: {w}");
+    }
+    // seven dropped: one more warning lists them
+    let last = cat.warnings.last().expect("summary");
+    assert!(last.message.starts_with("7 of 8 entries dropped"), "{last}");
+    assert!(last.to_string().starts_with("mine.toml: "), "{last}");
+    // nothing that is not a finite number reaches the catalogue (a TEP of -inf ranked first)
+    assert!(cat
+        .ligands()
+        .iter()
+        .all(|l| l.tep.as_ref().is_none_or(|t| t.value.is_finite())));
+}
+
+#[test]
+fn mode_counts_out_of_range_are_refused() {
+    let mode = |key: &str, label: &str, extra: &str| {
+        format!(
+            "[[ligand]]\nkey = \"{key}\"\nname = \"n\"\nformula = \"{key}f\"\nfamily = \"halide\"\n\
+             [[ligand.mode]]\nlabel = \"{label}\"\nclass = \"X\"\n{extra}\n\n"
+        )
+    };
+    let text = [
+        mode("Mb1", "μ", ""),
+        mode("Mb2", "μ9", ""),
+        mode("Mb3", "κ1", "donors = 0"),
+        mode("Mb4", "κ1", "ionic_charge = -100"),
+        mode("Mb5", "η200", ""),
+    ]
+    .concat();
+    let cat = user_set(&text);
+    assert!(cat.get("Mb1").is_some(), "{:?}", cat.warnings);
+    for (key, what) in [
+        ("Mb2", "bridges = 9"),
+        ("Mb3", "donors = 0"),
+        ("Mb4", "ionic_charge = -100"),
+        ("Mb5", "donors = 200"),
+    ] {
+        assert!(cat.get(key).is_none(), "{key}");
+        let w = cat
+            .warnings
+            .iter()
+            .find(|w| w.key.as_deref() == Some(key))
+            .unwrap_or_else(|| panic!("no warning for {key}"));
+        assert!(w.message.contains(what), "{w}");
+    }
+}
+
+/// Runs `nonet count` with `config` as its config dir; fails the test (instead of hanging it)
+/// if the command takes longer than 20 s.
+fn count_within(config: &Path, d: &Path) -> Output {
+    let mut child = Command::new(env!("CARGO_BIN_EXE_nonet"))
+        .args(["count", "Fe(CO)5"])
+        .env("NONET_CONFIG_DIR", config)
+        .env("NONET_DATA_DIR", d.join("data"))
+        .stdout(std::process::Stdio::piped())
+        .stderr(std::process::Stdio::piped())
+        .spawn()
+        .expect("spawn");
+    let start = std::time::Instant::now();
+    while child.try_wait().expect("wait").is_none() {
+        if start.elapsed().as_secs() > 20 {
+            let _ = child.kill();
+            panic!("nonet count hung on a user ligand set");
+        }
+        std::thread::sleep(std::time::Duration::from_millis(20));
+    }
+    child.wait_with_output().expect("output")
+}
+
+#[cfg(unix)]
+#[test]
+fn a_fifo_among_the_user_sets_is_skipped_not_waited_on() {
+    let d = scratch("fifo");
+    let sets = d.join("config").join("ligand_sets");
+    std::fs::create_dir_all(&sets).expect("dir");
+    let fifo = sets.join("pipe.toml");
+    let made = Command::new("mkfifo").arg(&fifo).status().expect("mkfifo");
+    assert!(made.success());
+    std::fs::create_dir_all(sets.join("folder.toml")).expect("dir");
+    std::fs::write(sets.join("good.toml"), entry("Qf1", "")).expect("write");
+    let out = count_within(&d.join("config"), &d);
+    assert!(out.status.success(), "{}", stderr(&out));
+    let err = stderr(&out);
+    assert!(err.contains("pipe.toml: a FIFO"), "{err}");
+    assert!(err.contains("folder.toml: a directory"), "{err}");
+    assert!(err.contains("regular files"), "{err}");
+    // the regular file next to them loads
+    let cat = Catalogue::with_user_dir(Some(&sets));
+    assert!(cat.get("Qf1").is_some(), "{:?}", cat.warnings);
+    let _ = std::fs::remove_dir_all(&d);
+}
+
+#[test]
+fn an_oversized_user_set_is_refused_with_the_limit() {
+    let d = scratch("big");
+    let sets = d.join("ligand_sets");
+    std::fs::create_dir_all(&sets).expect("dir");
+    let mut text = entry("Qb1", "");
+    text.push_str(&"# padding\n".repeat((MAX_SET_BYTES as usize) / 10 + 1));
+    std::fs::write(sets.join("big.toml"), text).expect("write");
+    std::fs::write(sets.join("small.toml"), entry("Qb2", "")).expect("write");
+    let cat = Catalogue::with_user_dir(Some(&sets));
+    assert!(cat.get("Qb1").is_none());
+    assert!(cat.get("Qb2").is_some(), "the other set loads");
+    assert_eq!(cat.warnings.len(), 1, "{:?}", cat.warnings);
+    let w = cat.warnings[0].to_string();
+    assert!(w.contains("big.toml"), "{w}");
+    assert!(w.contains("at most 16 MiB"), "{w}");
+    assert!(w.contains("split it"), "{w}");
+    let _ = std::fs::remove_dir_all(&d);
+}
+
+#[test]
+fn a_user_set_that_is_not_utf8_names_the_line() {
+    let d = scratch("latin1");
+    let sets = d.join("ligand_sets");
+    std::fs::create_dir_all(&sets).expect("dir");
+    std::fs::write(sets.join("latin.toml"), b"# ok\n# caf\xe9\n").expect("write");
+    let cat = Catalogue::with_user_dir(Some(&sets));
+    let w = cat.warnings[0].to_string();
+    assert!(w.contains("line 2 is not UTF-8"), "{w}");
+    let _ = std::fs::remove_dir_all(&d);
+}
+
+/// A user set of `n` distinct ligands.
+fn many_ligands(n: usize) -> String {
+    (0..n).map(|i| entry(&format!("Lg{i}"), "")).collect()
+}
+
+/// Times loading 100,000 user ligands. Run with
+/// `cargo test --release --test hostile_input -- --ignored --nocapture`; the duplicate-key
+/// check scanned every earlier ligand and took 46 s here, an index takes about 2 s.
+#[test]
+#[ignore]
+fn a_hundred_thousand_user_ligands_load_in_seconds() {
+    let text = many_ligands(100_000);
+    let start = std::time::Instant::now();
+    let cat = user_set(&text);
+    let took = start.elapsed();
+    assert!(cat.warnings.is_empty(), "{:?}", &cat.warnings[..1]);
+    assert_eq!(cat.len(), 100_000);
+    println!("100,000 user ligands loaded in {took:?}");
+    assert!(took.as_secs_f64() < 10.0, "took {took:?}");
+}

@@ -312,13 +312,15 @@ fn add_to_set(
         q(&req.class)
     );
     // try the grown set on its own first: nothing reaches the real file unless it loads
-    let old = match std::fs::read_to_string(&path) {
-        Ok(t) => t,
+    let old = match std::fs::metadata(&path) {
         Err(e) if e.kind() == std::io::ErrorKind::NotFound => String::new(),
-        Err(e) => {
-            eprintln!("error: cannot read {}: {e}", path.display());
-            return Ok(Status::Failure);
-        }
+        _ => match crate::catalogue::read_set_file(&path) {
+            Ok(t) => t,
+            Err(e) => {
+                eprintln!("error: {}: {e}; nothing was written", path.display());
+                return Ok(Status::Failure);
+            }
+        },
     };
     let scratch = std::env::temp_dir().join(format!("nonet-add-{}", std::process::id()));
     let _ = std::fs::remove_dir_all(&scratch);

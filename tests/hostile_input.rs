@@ -489,3 +489,162 @@ fn a_hundred_thousand_user_ligands_load_in_seconds() {
     println!("100,000 user ligands loaded in {took:?}");
     assert!(took.as_secs_f64() < 10.0, "took {took:?}");
 }
+
+// ---------------------------------------------------------------------------------------------
+// "Did you mean" suggestions
+// ---------------------------------------------------------------------------------------------
+
+use nonet::chem::LigandLookup;
+use std::collections::BTreeSet;
+
+/// The suggestion as it was first written: every token compared by edit distance, then the
+/// whole catalogue searched with the fuzzy matcher. Kept here to check the fast one against.
+fn suggest_by_scanning(cat: &Catalogue, token: &str) -> Option<String> {
+    fn distance(a: &str, b: &str) -> usize {
+        let b: Vec<char> = b.chars().collect();
+        let mut prev: Vec<usize> = (0..=b.len()).collect();
+        let mut cur = vec![0; b.len() + 1];
+        for (i, ca) in a.chars().enumerate() {
+            cur[0] = i + 1;
+            for (j, cb) in b.iter().enumerate() {
+                cur[j + 1] = (prev[j] + usize::from(ca != *cb))
+                    .min(prev[j + 1] + 1)
+                    .min(cur[j] + 1);
+            }
+            std::mem::swap(&mut prev, &mut cur);
+        }
+        prev[b.len()]
+    }
+    if token.is_empty() {
+        return None;
+    }
+    let tokens = formula_tokens(cat);
+    let lower = token.to_lowercase();
+    if let Some(t) = tokens.iter().find(|t| t.to_lowercase() == lower) {
+        return Some(t.clone());
+    }
+    let limit = (token.chars().count() / 3).clamp(1, 3);
+    let mut best: Option<(usize, &String)> = None;
+    for t in &tokens {
+        let d = distance(&lower, &t.to_lowercase());
+        if d <= limit && best.is_none_or(|(bd, _)| d < bd) {
+            best = Some((d, t));
+        }
+    }
+    if let Some((_, t)) = best {
+        return Some(t.clone());
+    }
+    cat.search(token)
+        .into_iter()
+        .find(|h| h.score > 40)
+        .map(|h| h.ligand.key.clone())
+}
+
+/// Every string that names a ligand in a formula, in byte order.
+fn formula_tokens(cat: &Catalogue) -> BTreeSet<String> {
+    cat.ligands()
+        .iter()
+        .flat_map(|l| {
+            std::iter::once(l.key.clone())
+                .chain(std::iter::once(l.formula.clone()))
+                .chain(l.aliases.iter().cloned())
+        })
+        .filter(|t| !t.is_empty() && !t.chars().any(char::is_whitespace))
+        .collect()
+}
+
+/// Slips a chemist makes: a letter dropped, doubled, swapped or changed, the case changed,
+/// plus some noise.
+fn typos(cat: &Catalogue) -> Vec<String> {
+    let mut out = Vec::new();
+    for (n, t) in formula_tokens(cat)
+        .iter()
+        .enumerate()
+        .filter(|(n, _)| n % 7 == 0)
+    {
+        let c: Vec<char> = t.chars().collect();
+        let k = n % c.len().max(1);
+        let mut dropped = c.clone();
+        dropped.remove(k);
+        let mut doubled = c.clone();
+        doubled.insert(k, c[k]);
+        let mut changed = c.clone();
+        changed[k] = if c[k] == 'x' { 'q' } else { 'x' };
+        let mut swapped = c.clone();
+        if c.len() > 1 {
+            swapped.swap(k.min(c.len() - 2), k.min(c.len() - 2) + 1);
+        }
+        for v in [dropped, doubled, changed, swapped] {
+            out.push(v.into_iter().collect());
+        }
+        out.push(t.to_uppercase());
+    }
+    out.extend(
+        [
+            "Xyzzy",
+            "q",
+            "zz",
+            "bipyrydine",
+            "tetramethylcyclopentadienylz",
+            "PPh4",
+            "Co",
+            "tmeda9",
+            "ÅÅ",
+            "η",
+            "((",
+            "1234567890",
+            "phosphinephosphine",
+        ]
+        .map(String::from),
+    );
+    out
+}
+
+#[test]
+fn suggestions_are_those_of_the_full_scan() {
+    for cat in [cat(), &user_set(&many_ligands(300))] {
+        for t in typos(cat) {
+            assert_eq!(
+                cat.suggest(&t),
+                suggest_by_scanning(cat, &t),
+                "suggestion for '{t}'"
+            );
+        }
+    }
+}
+
+#[test]
+fn an_unknown_ligand_costs_a_few_good_lines() {
+    // the full scan made an unknown line cost about 400 good ones
+    let good = [
+        "Pd(PPh3)4",
+        "Fe(CO)5",
+        "RhCl(PPh3)3",
+        "Ni(CO)4",
+        "[Co(NH3)6]3+",
+    ];
+    let bad = [
+        "Pd(PPh4)4",
+        "Fe(Xyzzy)5",
+        "Ru(bipyrydine)3",
+        "Ni(CQ)4",
+        "Co(NH4)6",
+    ];
+    let _ = parse(bad[0], cat()); // builds the suggestion index once
+    let time = |lines: &[&str]| {
+        let start = std::time::Instant::now();
+        for _ in 0..40 {
+            for f in lines {
+                std::hint::black_box(parse(f, cat()).is_ok());
+            }
+        }
+        start.elapsed().as_secs_f64()
+    };
+    let (g, b) = (time(&good), time(&bad));
+    println!("an unknown line costs {:.1} good lines", b / g);
+    assert!(
+        b < 40.0 * g,
+        "unknown lines took {:.0}x good ones ({b:.4} s against {g:.4} s)",
+        b / g
+    );
+}

@@ -45,6 +45,8 @@ pub struct Catalogue {
     /// Canonical SMILES of each ligand and substrate, worked out when first compared.
     canon_ligands: Vec<OnceLock<String>>,
     canon_substrates: Vec<OnceLock<String>>,
+    /// Built when a token is first unknown (see `search::suggest`).
+    suggest_index: OnceLock<search::SuggestIndex>,
 }
 
 #[derive(Debug, Clone, Copy)]
@@ -230,6 +232,7 @@ impl Catalogue {
         Catalogue {
             canon_ligands: (0..ligands.len()).map(|_| OnceLock::new()).collect(),
             canon_substrates: (0..substrates.len()).map(|_| OnceLock::new()).collect(),
+            suggest_index: OnceLock::new(),
             ligands,
             tokens,
             by_first,
@@ -241,6 +244,11 @@ impl Catalogue {
             substrate_tokens,
             by_formula,
         }
+    }
+
+    fn suggest_index(&self) -> &search::SuggestIndex {
+        self.suggest_index
+            .get_or_init(|| search::SuggestIndex::new(self))
     }
 
     pub fn substrates(&self) -> &[Arc<SubstrateDef>] {

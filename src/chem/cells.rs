@@ -111,7 +111,10 @@ impl Lattice {
             None => wrapped(-PI, PI),
             Some(w) => wrapped(centre - w, centre + w),
         };
-        for band in &self.bands[first / PER_BAND..=(last / PER_BAND).min(self.bands.len() - 1)] {
+        let top = self.bands.len() - 1;
+        let from = (first / PER_BAND).min(top);
+        let to = (last / PER_BAND).clamp(from, top);
+        for band in &self.bands[from..=to] {
             for &(from, to) in ranges.iter().flatten() {
                 let start = band.partition_point(|&(p, _)| p < from);
                 band[start..]

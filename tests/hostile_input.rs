@@ -648,3 +648,72 @@ fn an_unknown_ligand_costs_a_few_good_lines() {
         b / g
     );
 }
+
+// ---------------------------------------------------------------------------------------------
+// Noise never panics
+// ---------------------------------------------------------------------------------------------
+
+mod noise {
+    use super::*;
+    use proptest::prelude::*;
+
+    /// A small structure: element symbols (some metals) at coordinates that may coincide.
+    fn arb_atoms() -> impl Strategy<Value = Vec<structure::Atom>> {
+        let symbol = prop::sample::select(vec!["H", "C", "N", "P", "Cl", "Pd", "Fe", "Xe"]);
+        let coord = prop_oneof![(-40i32..40).prop_map(|v| v as f64 * 0.25), -5.0f64..5.0];
+        prop::collection::vec((symbol, coord.clone(), coord.clone(), coord), 1..12).prop_map(|v| {
+            v.into_iter()
+                .map(|(s, x, y, z)| structure::Atom {
+                    symbol: s.to_string(),
+                    pos: [x, y, z],
+                })
+                .collect()
+        })
+    }
+
+    proptest! {
+        #![proptest_config(ProptestConfig::with_cases(64))]
+
+        #[test]
+        fn structure_text_gives_atoms_or_an_error(s in "[0-9A-Za-z .\\-\\n]{0,80}") {
+            let _ = structure::parse(&s);
+            let _ = structure::parse(&format!("{s}\n  1  0  0  0  0  0  0  0  0  0999 V2000\n"));
+        }
+
+        #[test]
+        fn any_geometry_gives_descriptors_or_a_reason(
+            atoms in arb_atoms(),
+            donor in prop::option::of(0usize..14),
+        ) {
+            if let Ok(s) = shape::setup(&atoms, donor, 2.28) {
+                let _ = shape::exact_cone_angle(&s);
+                let _ = shape::solid_angle(&s);
+                let b = shape::buried_volume(&s, 3.5, 1.17, true, 5);
+                prop_assert!(b.percent.is_finite());
+            }
+        }
+
+        #[test]
+        fn ligand_set_noise_loads_what_it_can(
+            cut in 0usize..400,
+            junk in "[a-z_ =\"\\[\\]0-9.\\n-]{0,30}",
+        ) {
+            let mut text = format!(
+                "{}{}{}",
+                entry("Np1", "tep = 2056.1\ntep_source = \"t\""),
+                entry("Np2", ""),
+                entry("Np3", "")
+            );
+            let at = text
+                .char_indices()
+                .map(|(i, _)| i)
+                .nth(cut.min(text.chars().count()))
+                .unwrap_or(text.len());
+            text.insert_str(at, &junk);
+            let cat = user_set(&text);
+            for w in &cat.warnings {
+                prop_assert!(w.line <= text.lines().count() + 1, "{}", w);
+            }
+        }
+    }
+}

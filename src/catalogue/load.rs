@@ -338,7 +338,11 @@ fn convert_all<'i, R: Deserialize<'i>, T>(
             _ => None,
         };
         let result = R::deserialize(ValueDeserializer::from(item))
-            .map_err(|e| (e.message().trim().to_string(), e.span()))
+            .map_err(|e| {
+                let what = e.message().trim().to_string();
+                let fix = "fix or remove that field (the format is in DEVELOPERS.md)";
+                (format!("{what}: {fix}"), e.span())
+            })
             .and_then(&convert);
         match result {
             Ok(x) => out.push(x),

@@ -5,6 +5,7 @@ use std::fmt;
 use std::ops::Range;
 
 use serde::Deserialize;
+use toml::de::{DeTable, DeValue, ValueDeserializer};
 use toml::Spanned;
 
 use crate::chem::ligand::{BindingMode, CbcClass, FieldClass, LigandDef, Sourced};
@@ -23,24 +24,16 @@ pub struct SetError {
 
 impl fmt::Display for SetError {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        write!(f, "{}:{}:{}: ", self.file, self.line, self.column)?;
+        if self.line == 0 {
+            write!(f, "{}: ", self.file)?;
+        } else {
+            write!(f, "{}:{}:{}: ", self.file, self.line, self.column)?;
+        }
         if let Some(k) = &self.key {
             write!(f, "ligand '{k}': ")?;
         }
         write!(f, "{}", self.message)
     }
-}
-
-#[derive(Deserialize)]
-#[serde(deny_unknown_fields)]
-struct RawSet {
-    #[serde(default)]
-    #[allow(dead_code)]
-    set: Option<String>,
-    #[serde(default)]
-    ligand: Vec<Spanned<RawLigand>>,
-    #[serde(default)]
-    substrate: Vec<Spanned<RawSubstrate>>,
 }
 
 /// A reagent or substrate that steps bring in or release (MeI, PhB(OH)2, AgBF4, H2).
@@ -77,11 +70,11 @@ struct RawLigand {
     #[serde(default)]
     pi_donor: bool,
     #[serde(default)]
-    cone_angle: Option<f64>,
+    cone_angle: Option<Spanned<f64>>,
     #[serde(default)]
     cone_angle_source: Option<String>,
     #[serde(default)]
-    tep: Option<f64>,
+    tep: Option<Spanned<f64>>,
     #[serde(default)]
     tep_source: Option<String>,
     #[serde(default)]
@@ -180,7 +173,9 @@ pub fn parse_set(file: &str, text: &str, origin: &str) -> (Vec<LigandDef>, Vec<S
     (set.ligands, set.errors)
 }
 
-/// Parse one set with its substrates.
+/// Parse one set with its substrates. Each `[[ligand]]` and `[[substrate]]` is read on its
+/// own: an unknown field or a bad value drops that entry, names it and where it is, and the
+/// rest of the file loads. Only a TOML syntax error drops the whole file.
 pub fn parse_set_all(file: &str, text: &str, origin: &str) -> Set {
     let at = |span: Option<Range<usize>>, key: Option<String>, message: String| {
         let (line, column) = line_col(text, span.map_or(0, |s| s.start));
@@ -192,8 +187,8 @@ pub fn parse_set_all(file: &str, text: &str, origin: &str) -> Set {
             message,
         }
     };
-    let raw: RawSet = match toml::from_str(text) {
-        Ok(r) => r,
+    let root = match DeTable::parse(text) {
+        Ok(r) => r.into_inner(),
         Err(e) => {
             let msg = e.message().trim().to_string();
             return Set {
@@ -203,24 +198,79 @@ pub fn parse_set_all(file: &str, text: &str, origin: &str) -> Set {
         }
     };
     let mut errors = Vec::new();
-    let ligands = convert_all(
-        raw.ligand,
-        &mut errors,
-        &at,
-        |r: &RawLigand| r.key.get_ref().clone(),
-        |r| convert(r, origin),
-    );
-    let substrates = convert_all(
-        raw.substrate,
-        &mut errors,
-        &at,
-        |r: &RawSubstrate| r.key.get_ref().clone(),
-        |r| convert_substrate(r, origin),
-    );
+    let mut raw_ligands = Vec::new();
+    let mut raw_substrates = Vec::new();
+    for (name, value) in root {
+        let span = name.span();
+        let items = match name.get_ref().as_ref() {
+            "set" => continue,
+            "ligand" => &mut raw_ligands,
+            "substrate" => &mut raw_substrates,
+            other => {
+                errors.push(at(
+                    Some(span),
+                    None,
+                    format!(
+                        "unknown field '{other}' ignored: a set holds [[ligand]] and \
+                         [[substrate]] tables (and an optional set = \"name\")"
+                    ),
+                ));
+                continue;
+            }
+        };
+        let what = name.get_ref().to_string();
+        let value_span = value.span();
+        match value.into_inner() {
+            DeValue::Array(a) => items.extend(a),
+            _ => errors.push(at(
+                Some(value_span),
+                None,
+                format!("'{what}' must be written as [[{what}]] tables; it was ignored"),
+            )),
+        }
+    }
+    let entries = raw_ligands.len() + raw_substrates.len();
+    let ligands = convert_all(raw_ligands, &mut errors, &at, |r| convert(r, origin));
+    let substrates = convert_all(raw_substrates, &mut errors, &at, |r| {
+        convert_substrate(r, origin)
+    });
+    let dropped = entries - ligands.len() - substrates.len();
+    if dropped > 1 {
+        errors.push(summary(file, &errors, dropped, entries));
+    }
     Set {
         ligands,
         substrates,
         errors,
+    }
+}
+
+/// One line listing the entries a file lost, after the warnings about each.
+fn summary(file: &str, errors: &[SetError], dropped: usize, entries: usize) -> SetError {
+    const SHOWN: usize = 8;
+    let mut names: Vec<String> = errors
+        .iter()
+        .filter(|e| e.message.ends_with("this entry is skipped"))
+        .take(SHOWN)
+        .map(|e| match &e.key {
+            Some(k) => format!("'{k}'"),
+            None => format!("the entry at line {}", e.line),
+        })
+        .collect();
+    if dropped > SHOWN {
+        names.push(format!("and {} more", dropped - SHOWN));
+    }
+    SetError {
+        file: file.to_string(),
+        line: 0,
+        column: 0,
+        key: None,
+        message: format!(
+            "{dropped} of {entries} entries dropped ({}); the other {} loaded; fix the entries \
+             named above",
+            names.join(", "),
+            entries - dropped
+        ),
     }
 }
 
@@ -269,26 +319,78 @@ fn convert_substrate(raw: RawSubstrate, origin: &str) -> Result<SubstrateDef, Pr
 
 type Problem = (String, Option<Range<usize>>);
 
-/// Convert every entry of one kind; a bad entry is reported with its key and skipped.
-fn convert_all<R, T>(
-    raw: Vec<Spanned<R>>,
+/// Read every entry of one kind; a bad entry is reported with its key and where it is, and
+/// skipped.
+fn convert_all<'i, R: Deserialize<'i>, T>(
+    raw: Vec<Spanned<DeValue<'i>>>,
     errors: &mut Vec<SetError>,
     at: &dyn Fn(Option<Range<usize>>, Option<String>, String) -> SetError,
-    key: impl Fn(&R) -> String,
     convert: impl Fn(R) -> Result<T, Problem>,
 ) -> Vec<T> {
-    let mut out = Vec::new();
-    for spanned in raw {
-        let span = spanned.span();
-        let raw = spanned.into_inner();
-        let k = key(&raw);
-        match convert(raw) {
+    let mut out = Vec::with_capacity(raw.len());
+    for item in raw {
+        let span = item.span();
+        let key = match item.get_ref() {
+            DeValue::Table(t) => t
+                .get("key")
+                .and_then(|k| k.get_ref().as_str())
+                .map(str::to_string),
+            _ => None,
+        };
+        let result = R::deserialize(ValueDeserializer::from(item))
+            .map_err(|e| {
+                let what = e.message().trim().to_string();
+                let fix = "fix or remove that field (the format is in DEVELOPERS.md)";
+                (format!("{what}: {fix}"), e.span())
+            })
+            .and_then(&convert);
+        match result {
             Ok(x) => out.push(x),
-            Err((msg, sub)) => errors.push(at(Some(sub.unwrap_or(span)), Some(k), msg)),
+            Err((msg, sub)) => errors.push(at(
+                Some(sub.unwrap_or(span)),
+                key,
+                format!("{msg}; this entry is skipped"),
+            )),
         }
     }
     out
 }
+
+/// A published number must be finite and within `range`; the message says the unit and the
+/// usual values.
+fn in_range(
+    value: f64,
+    range: std::ops::RangeInclusive<f64>,
+    what: &str,
+    unit: &str,
+    usual: &str,
+) -> Result<(), String> {
+    if value.is_finite() && range.contains(&value) {
+        Ok(())
+    } else {
+        Err(format!(
+            "{what} = {value} is outside {}-{} {unit} ({usual}); correct the number or leave \
+             the field out",
+            range.start(),
+            range.end()
+        ))
+    }
+}
+
+/// Tolman electronic parameters (A1 ν(CO) of Ni(CO)3L) lie near 2040-2111 cm-1 for common
+/// ligands (Tolman, Chem. Rev. 1977, 77, 313); free CO is 2143. This window leaves room and
+/// catches typing slips and non-numbers.
+pub const TEP_RANGE: std::ops::RangeInclusive<f64> = 1950.0..=2150.0;
+
+/// Cone angles, degrees: hydride's 75° is about the smallest; a cone is at most the sphere.
+pub const CONE_RANGE: std::ops::RangeInclusive<f64> = 30.0..=360.0;
+
+/// Mode counts that keep counting arithmetic within reason (η8-COT has 8 donors; μ6 bridges
+/// are the widest; ions beyond ±6 are not ligands).
+const MAX_DONORS: u8 = 12;
+const MAX_SITES: u8 = 12;
+const MAX_BRIDGES: u8 = 6;
+const MAX_IONIC_CHARGE: i8 = 6;
 
 fn convert(raw: RawLigand, origin: &str) -> Result<LigandDef, Problem> {
     let (key, key_span) = one_word(raw.key, "formulas")?;
@@ -308,27 +410,46 @@ fn convert(raw: RawLigand, origin: &str) -> Result<LigandDef, Problem> {
             Some(key_span),
         ));
     }
-    let sourced = |value: Option<f64>, source: Option<String>, what: &str| match (value, source) {
-        (Some(v), Some(s)) if !s.trim().is_empty() => Ok(Some(Sourced {
-            value: v,
-            source: s,
-        })),
-        (Some(_), _) => Err((
-            format!("{what} needs {what}_source (the published work, or \"from memory\")"),
-            Some(key_span.clone()),
-        )),
-        (None, _) => Ok(None),
-    };
-    let cone_angle = sourced(raw.cone_angle, raw.cone_angle_source, "cone_angle")?;
-    if let Some(c) = &cone_angle {
-        if !(30.0..=360.0).contains(&c.value) {
-            return Err((
-                format!("cone_angle {} is outside 30-360 degrees", c.value),
-                Some(key_span),
-            ));
+    // a published number: in range, and with its source
+    let sourced = |value: Option<Spanned<f64>>,
+                   source: Option<String>,
+                   what: &str,
+                   range: std::ops::RangeInclusive<f64>,
+                   unit: &str,
+                   usual: &str| {
+        let Some(value) = value else {
+            return Ok(None);
+        };
+        let span = value.span();
+        let v = *value.get_ref();
+        in_range(v, range, what, unit, usual).map_err(|m| (m, Some(span.clone())))?;
+        match source {
+            Some(s) if !s.trim().is_empty() => Ok(Some(Sourced {
+                value: v,
+                source: s,
+            })),
+            _ => Err((
+                format!("{what} needs {what}_source (the published work, or \"from memory\")"),
+                Some(span),
+            )),
         }
-    }
-    let tep = sourced(raw.tep, raw.tep_source, "tep")?;
+    };
+    let cone_angle = sourced(
+        raw.cone_angle,
+        raw.cone_angle_source,
+        "cone_angle",
+        CONE_RANGE,
+        "degrees",
+        "Tolman cones run from 75 for H to about 210",
+    )?;
+    let tep = sourced(
+        raw.tep,
+        raw.tep_source,
+        "tep",
+        TEP_RANGE,
+        "cm-1",
+        "Tolman's values run from about 2040 to 2111",
+    )?;
     if !raw.hazards.is_empty() && raw.hazard_source.as_deref().is_none_or(str::is_empty) {
         return Err((
             "hazards need hazard_source (regulation, safety data sheet or \"from memory\")".into(),
@@ -362,6 +483,28 @@ fn convert(raw: RawLigand, origin: &str) -> Result<LigandDef, Problem> {
         }
         mode.three_centre = m.three_centre;
         mode.note = m.note;
+        let bad = |what: &str, value: i64, lo: i64, hi: i64| {
+            (!(lo..=hi).contains(&value)).then(|| {
+                (
+                    format!(
+                        "mode '{}': {what} = {value} is outside {lo}-{hi}; give it in the \
+                         mode or fix the label",
+                        mode.label
+                    ),
+                    Some(span.clone()),
+                )
+            })
+        };
+        let problem = bad("donors", mode.donors.into(), 1, MAX_DONORS.into())
+            .or_else(|| bad("sites", mode.sites.into(), 1, MAX_SITES.into()))
+            .or_else(|| bad("bridges", mode.bridges.into(), 1, MAX_BRIDGES.into()))
+            .or_else(|| {
+                let q = i64::from(MAX_IONIC_CHARGE);
+                bad("ionic_charge", mode.ionic_charge.into(), -q, q)
+            });
+        if let Some(p) = problem {
+            return Err(p);
+        }
         modes.push(mode);
     }
     let structure = match &raw.smiles {

@@ -45,6 +45,8 @@ pub struct Catalogue {
     /// Canonical SMILES of each ligand and substrate, worked out when first compared.
     canon_ligands: Vec<OnceLock<String>>,
     canon_substrates: Vec<OnceLock<String>>,
+    /// Built when a token is first unknown (see `search::suggest`).
+    suggest_index: OnceLock<search::SuggestIndex>,
 }
 
 #[derive(Debug, Clone, Copy)]
@@ -78,14 +80,14 @@ impl Catalogue {
                     paths.sort();
                     for p in paths {
                         let name = p.display().to_string();
-                        match std::fs::read_to_string(&p) {
+                        match read_set_file(&p) {
                             Ok(text) => user.push((name, text)),
-                            Err(e) => io_errors.push(SetError {
+                            Err(message) => io_errors.push(SetError {
                                 file: name,
                                 line: 0,
                                 column: 0,
                                 key: None,
-                                message: format!("cannot read: {e}"),
+                                message,
                             }),
                         }
                     }
@@ -110,6 +112,9 @@ impl Catalogue {
         let mut warnings = Vec::new();
         let mut ligands: Vec<LigandDef> = Vec::new();
         let mut substrates: Vec<SubstrateDef> = Vec::new();
+        // key -> position, so merging stays linear in the number of entries
+        let mut ligand_index: HashMap<String, usize> = HashMap::new();
+        let mut substrate_index: HashMap<String, usize> = HashMap::new();
         for (is_user, (name, text)) in bundled
             .into_iter()
             .map(|s| (false, s))
@@ -123,8 +128,8 @@ impl Catalogue {
             let set = load::parse_set_all(&name, &text, &origin);
             warnings.extend(set.errors);
             for d in set.substrates {
-                match substrates.iter().position(|x| x.key == d.key) {
-                    Some(i) if is_user => substrates[i] = d,
+                match substrate_index.get(&d.key) {
+                    Some(&i) if is_user => substrates[i] = d,
                     Some(_) => warnings.push(SetError {
                         file: name.clone(),
                         line: 0,
@@ -134,12 +139,15 @@ impl Catalogue {
                             "substrate key defined twice in the bundled sets; the first is kept"
                                 .into(),
                     }),
-                    None => substrates.push(d),
+                    None => {
+                        substrate_index.insert(d.key.clone(), substrates.len());
+                        substrates.push(d);
+                    }
                 }
             }
             for d in set.ligands {
-                match ligands.iter().position(|l| l.key == d.key) {
-                    Some(i) if is_user => ligands[i] = d,
+                match ligand_index.get(&d.key) {
+                    Some(&i) if is_user => ligands[i] = d,
                     Some(_) => warnings.push(SetError {
                         file: name.clone(),
                         line: 0,
@@ -147,7 +155,10 @@ impl Catalogue {
                         key: Some(d.key.clone()),
                         message: "key defined twice in the bundled sets; the first is kept".into(),
                     }),
-                    None => ligands.push(d),
+                    None => {
+                        ligand_index.insert(d.key.clone(), ligands.len());
+                        ligands.push(d);
+                    }
                 }
             }
         }
@@ -221,6 +232,7 @@ impl Catalogue {
         Catalogue {
             canon_ligands: (0..ligands.len()).map(|_| OnceLock::new()).collect(),
             canon_substrates: (0..substrates.len()).map(|_| OnceLock::new()).collect(),
+            suggest_index: OnceLock::new(),
             ligands,
             tokens,
             by_first,
@@ -232,6 +244,11 @@ impl Catalogue {
             substrate_tokens,
             by_formula,
         }
+    }
+
+    fn suggest_index(&self) -> &search::SuggestIndex {
+        self.suggest_index
+            .get_or_init(|| search::SuggestIndex::new(self))
     }
 
     pub fn substrates(&self) -> &[Arc<SubstrateDef>] {
@@ -374,6 +391,90 @@ impl LigandLookup for Catalogue {
             Entry::Substrate(i) => Some(&self.substrates[i]),
             Entry::Ligand(_) => None,
         })
+    }
+}
+
+/// Largest user ligand set read, bytes: about 100,000 ligands.
+pub const MAX_SET_BYTES: u64 = 16 << 20;
+
+/// The text of a user ligand set. Only regular files are read (a FIFO would block every
+/// command, a device might never end), at most `MAX_SET_BYTES` of them, as UTF-8. The error
+/// says what is wrong and what to do; the file is then skipped.
+pub fn read_set_file(path: &Path) -> Result<String, String> {
+    use std::io::Read;
+    let meta = std::fs::metadata(path).map_err(|e| format!("cannot read: {e}"))?;
+    if !meta.file_type().is_file() {
+        return Err(not_regular(&meta));
+    }
+    let too_big = |size: u64| {
+        format!(
+            "the file is {:.1} MiB; a ligand set may be at most {} MiB: split it into several \
+             files",
+            size as f64 / (1u64 << 20) as f64,
+            MAX_SET_BYTES >> 20
+        )
+    };
+    if meta.len() > MAX_SET_BYTES {
+        return Err(too_big(meta.len()));
+    }
+    let file = open_nonblocking(path).map_err(|e| format!("cannot read: {e}"))?;
+    // the path may have been swapped for something else since it was looked at
+    let opened = file.metadata().map_err(|e| format!("cannot read: {e}"))?;
+    if !opened.file_type().is_file() {
+        return Err(not_regular(&opened));
+    }
+    let mut bytes = Vec::with_capacity(opened.len().min(MAX_SET_BYTES) as usize);
+    file.take(MAX_SET_BYTES + 1)
+        .read_to_end(&mut bytes)
+        .map_err(|e| format!("cannot read: {e}"))?;
+    if bytes.len() as u64 > MAX_SET_BYTES {
+        return Err(too_big(bytes.len() as u64));
+    }
+    String::from_utf8(bytes).map_err(|e| {
+        let good = &e.as_bytes()[..e.utf8_error().valid_up_to()];
+        let line = good.iter().filter(|&&b| b == b'\n').count() + 1;
+        format!("line {line} is not UTF-8 text; save the file as UTF-8")
+    })
+}
+
+fn open_nonblocking(path: &Path) -> std::io::Result<std::fs::File> {
+    let mut options = std::fs::OpenOptions::new();
+    options.read(true);
+    #[cfg(unix)]
+    {
+        use std::os::unix::fs::OpenOptionsExt;
+        options.custom_flags(libc::O_NONBLOCK);
+    }
+    options.open(path)
+}
+
+/// Why a path is not read: what it is instead of a regular file.
+fn not_regular(meta: &std::fs::Metadata) -> String {
+    format!(
+        "{}, skipped: ligand sets are read only from regular files; move it out of the \
+         ligand_sets directory or rename it without .toml",
+        file_kind(meta.file_type())
+    )
+}
+
+fn file_kind(t: std::fs::FileType) -> &'static str {
+    #[cfg(unix)]
+    {
+        use std::os::unix::fs::FileTypeExt;
+        if t.is_fifo() {
+            return "a FIFO (named pipe)";
+        }
+        if t.is_socket() {
+            return "a socket";
+        }
+        if t.is_char_device() || t.is_block_device() {
+            return "a device";
+        }
+    }
+    if t.is_dir() {
+        "a directory"
+    } else {
+        "not a regular file"
     }
 }
 

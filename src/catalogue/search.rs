@@ -1,5 +1,6 @@
 //! Fuzzy search over the catalogue and "did you mean" suggestions for unknown tokens.
 
+use std::collections::HashMap;
 use std::sync::Arc;
 
 use fuzzy_matcher::FuzzyMatcher;
@@ -183,59 +184,194 @@ pub fn haystack(l: &LigandDef) -> String {
     s
 }
 
+/// What "did you mean" searches, built the first time a token is unknown: every formula token
+/// lower-cased, grouped by length, with a signature of the characters it holds, and a
+/// signature per ligand's search text. An unknown token then costs a few microseconds instead
+/// of an edit distance to every token and a fuzzy match against every ligand.
+pub struct SuggestIndex {
+    /// Lower-cased token -> the first token (in byte order) with that spelling.
+    folded: HashMap<String, String>,
+    /// Tokens by their length in characters, sorted by token within each length.
+    by_len: Vec<Vec<Spelling>>,
+    /// Signature of each ligand's haystack, in catalogue order.
+    haystacks: Vec<u64>,
+}
+
+/// A token as compared: its lower-cased characters, their signature, and the token itself.
+type Spelling = (Box<[char]>, u64, String);
+
+impl SuggestIndex {
+    pub fn new(cat: &Catalogue) -> SuggestIndex {
+        let mut tokens: Vec<&String> = cat.tokens.keys().collect();
+        tokens.sort();
+        let mut folded: HashMap<String, String> = HashMap::with_capacity(tokens.len());
+        let mut by_len: Vec<Vec<Spelling>> = Vec::new();
+        for t in tokens {
+            let lower = t.to_lowercase();
+            let chars: Box<[char]> = lower.chars().collect();
+            let n = chars.len();
+            if by_len.len() <= n {
+                by_len.resize_with(n + 1, Vec::new);
+            }
+            by_len[n].push((chars, signature(&lower), t.clone()));
+            folded.entry(lower).or_insert_with(|| t.clone());
+        }
+        SuggestIndex {
+            folded,
+            by_len,
+            haystacks: cat.haystacks.iter().map(|h| signature(h)).collect(),
+        }
+    }
+}
+
+/// Which characters a text holds, as bits: letters and digits one bit each, everything else
+/// folded into the remaining bits. A character whose bit is missing from another text's
+/// signature is missing from that text.
+fn signature(text: &str) -> u64 {
+    text.chars()
+        .filter(|c| !c.is_whitespace())
+        .fold(0u64, |sig, c| sig | 1 << char_bit(c))
+}
+
+fn char_bit(c: char) -> u32 {
+    match c {
+        'a'..='z' => c as u32 - 'a' as u32,
+        '0'..='9' => 26 + (c as u32 - '0' as u32),
+        _ => 36 + (c as u32 % 28),
+    }
+}
+
 /// The nearest known formula token to `token`: a case-insensitive match, else the closest by
-/// edit distance, else the best fuzzy match.
+/// edit distance (ties to the first in byte order), else the best fuzzy match.
+///
+/// Only tokens whose length is within the allowed distance are compared, a token whose
+/// characters differ by more than the distance is skipped on its signature, and the distance
+/// itself stops once it cannot win; the fuzzy matcher sees only ligands that hold every
+/// character of the token.
 pub fn suggest(cat: &Catalogue, token: &str) -> Option<String> {
     if token.is_empty() {
         return None;
     }
+    let index = cat.suggest_index();
     let lower = token.to_lowercase();
-    let mut tokens: Vec<&String> = cat.tokens.keys().collect();
-    tokens.sort();
-    if let Some(t) = tokens.iter().find(|t| t.to_lowercase() == lower) {
-        return Some((*t).clone());
+    if let Some(t) = index.folded.get(&lower) {
+        return Some(t.clone());
     }
+    let query: Vec<char> = lower.chars().collect();
+    let sig = signature(&lower);
     let limit = (token.chars().count() / 3).clamp(1, 3);
+    let longest = (query.len() + limit).min(index.by_len.len().saturating_sub(1));
+    let lengths = query.len().saturating_sub(limit)..=longest;
     let mut best: Option<(usize, &String)> = None;
-    for t in &tokens {
-        let d = edit_distance(&lower, &t.to_lowercase());
-        if d <= limit && best.is_none_or(|(bd, _)| d < bd) {
-            best = Some((d, t));
+    for bucket in index.by_len.get(lengths).into_iter().flatten() {
+        for (chars, s, t) in bucket {
+            let bound = (sig & !s).count_ones().max((s & !sig).count_ones()) as usize;
+            let cap = best.map_or(limit, |(d, _)| d);
+            if bound > cap {
+                continue;
+            }
+            if let Some(d) = edit_distance_within(&query, chars, cap) {
+                if best.is_none_or(|(bd, bt)| (d, t) < (bd, bt)) {
+                    best = Some((d, t));
+                }
+            }
         }
     }
     if let Some((_, t)) = best {
         return Some(t.clone());
     }
-    cat.search(token)
-        .into_iter()
-        .find(|h| h.score > 40)
-        .map(|h| h.ligand.key.clone())
+    cat.best_hit(token, &index.haystacks)
+        .filter(|&(_, score)| score > 40)
+        .map(|(i, _)| cat.ligands[i].key.clone())
 }
 
-/// Levenshtein distance over characters.
-fn edit_distance(a: &str, b: &str) -> usize {
-    let b: Vec<char> = b.chars().collect();
+impl Catalogue {
+    /// The best search hit for `query` (highest score, then the first key), as `search` would
+    /// rank it first, without ranking the rest; `sigs` rules out ligands that lack a character.
+    fn best_hit(&self, query: &str, sigs: &[u64]) -> Option<(usize, i64)> {
+        let query = query.trim();
+        if query.is_empty() {
+            return None;
+        }
+        let lower = query.to_lowercase();
+        let need = signature(&lower);
+        let short = lower.chars().count() <= 2;
+        let mut best: Option<(usize, i64)> = None;
+        for (i, l) in self.ligands.iter().enumerate() {
+            if sigs.get(i).is_some_and(|s| need & !s != 0)
+                || !subsequence(&lower, &self.haystacks[i])
+            {
+                continue;
+            }
+            let score = if short {
+                Some(quick_score(l, &lower))
+            } else {
+                self.score(l, query)
+            };
+            let Some(score) = score else { continue };
+            let better =
+                best.is_none_or(|(j, b)| score > b || (score == b && l.key < self.ligands[j].key));
+            if better {
+                best = Some((i, score));
+            }
+        }
+        best
+    }
+}
+
+/// Levenshtein distance over characters when it is at most `cap`, else None; stops as soon as
+/// a whole row exceeds `cap`.
+fn edit_distance_within(a: &[char], b: &[char], cap: usize) -> Option<usize> {
+    if a.len().abs_diff(b.len()) > cap {
+        return None;
+    }
     let mut prev: Vec<usize> = (0..=b.len()).collect();
     let mut cur = vec![0; b.len() + 1];
-    for (i, ca) in a.chars().enumerate() {
+    for (i, ca) in a.iter().enumerate() {
         cur[0] = i + 1;
+        let mut row_min = cur[0];
         for (j, cb) in b.iter().enumerate() {
-            let sub = prev[j] + usize::from(ca != *cb);
+            let sub = prev[j] + usize::from(ca != cb);
             cur[j + 1] = sub.min(prev[j + 1] + 1).min(cur[j] + 1);
+            row_min = row_min.min(cur[j + 1]);
+        }
+        if row_min > cap {
+            return None;
         }
         std::mem::swap(&mut prev, &mut cur);
     }
-    prev[b.len()]
+    (prev[b.len()] <= cap).then_some(prev[b.len()])
+}
+
+/// Levenshtein distance over characters.
+#[cfg(test)]
+fn edit_distance(a: &str, b: &str) -> usize {
+    let a: Vec<char> = a.chars().collect();
+    let b: Vec<char> = b.chars().collect();
+    edit_distance_within(&a, &b, usize::MAX / 2).unwrap_or(usize::MAX)
 }
 
 #[cfg(test)]
 mod tests {
-    use super::edit_distance;
+    use super::{edit_distance, edit_distance_within};
 
     #[test]
     fn edit_distance_counts_single_changes() {
         assert_eq!(edit_distance("pph3", "pph3"), 0);
         assert_eq!(edit_distance("pme3", "pmw3"), 1);
         assert_eq!(edit_distance("", "abc"), 3);
+    }
+
+    #[test]
+    fn capped_edit_distance_gives_up_past_the_cap() {
+        let c = |s: &str| s.chars().collect::<Vec<char>>();
+        assert_eq!(edit_distance_within(&c("pph4"), &c("pph3"), 1), Some(1));
+        assert_eq!(edit_distance_within(&c("dppx"), &c("dppe"), 1), Some(1));
+        assert_eq!(edit_distance_within(&c("abcd"), &c("wxyz"), 3), None);
+        assert_eq!(
+            edit_distance_within(&c("kitten"), &c("sitting"), 3),
+            Some(3)
+        );
+        assert_eq!(edit_distance_within(&c("kitten"), &c("sitting"), 2), None);
     }
 }

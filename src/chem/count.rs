@@ -570,9 +570,15 @@ fn carbonyl_may_bridge(complex: &Complex) -> bool {
 
 impl Report {
     /// Why these numbers describe no real complex, if they do not: a d-block metal stripped
-    /// of more electrons than its group holds (TiCl6 would be d-2), or given more than a d10
-    /// shell and its two s/p electrons can take.
+    /// of more electrons than its group holds (TiCl6 would be d-2), or given more than its d10
+    /// shell can take ([Fe(CO)5]4- would be d12). Beyond d10 an electron has to go into the s
+    /// orbital, which only a bond to another metal makes use of: d10s1 metals pair up in
+    /// Hg2Cl2 and Cp*Zn-ZnCp*, and carbonyl cluster anions such as the Chini platinum clusters
+    /// sit a fraction of an electron above d10. So a polynuclear complex may go one electron
+    /// past d10 per metal; a metal on its own may not.
     pub fn impossible(&self) -> Option<String> {
+        let polynuclear = self.metals.len() > 1;
+        let most = Frac::int(if polynuclear { 11 } else { 10 });
         self.metals.iter().find_map(|m| {
             m.group?;
             let d = m.d_electrons;
@@ -586,10 +592,17 @@ impl Report {
                     m.group.unwrap_or(0),
                     m.valence_electrons
                 ))
-            } else if d > Frac::int(12) {
+            } else if d > most {
+                let limit = if polynuclear {
+                    "a d shell holds 10 electrons, and a metal-metal bond takes at most one more \
+                     per metal"
+                } else {
+                    "a d shell holds 10 electrons, and a metal with no metal partner has no use \
+                     for more"
+                };
                 Some(format!(
-                    "{} would be {} with d{}: more electrons than a metal can hold; check the \
-                     charge",
+                    "{} would be {} with d{}: {limit}; check the charge (too negative?) and the \
+                     ligands",
                     m.symbol, m.oxidation_state, d
                 ))
             } else {

@@ -2,6 +2,7 @@
 //! counting. Pure: no terminal, no files, no clock.
 
 pub mod canon;
+pub mod cells;
 pub mod cluster;
 pub mod complex;
 pub mod condensed;

@@ -7,6 +7,7 @@
 //! 3.5 Å sphere around the metal inside the ligand's atoms, Bondi radii scaled by 1.17), and a
 //! steric map seen down the metal-donor axis.
 
+use super::cells::{Cells, Lattice};
 use super::element;
 use super::structure::Atom;
 
@@ -103,20 +104,76 @@ pub struct Setup {
 
 /// Whether two atoms are bonded: closer than their covalent radii with 20% slack.
 fn bonded(a: &Atom, b: &Atom) -> bool {
-    norm(sub(a.pos, b.pos)) < 1.2 * (covalent_radius(&a.symbol) + covalent_radius(&b.symbol))
+    norm(sub(a.pos, b.pos)) < bond_cutoff(a, b)
+}
+
+fn bond_cutoff(a: &Atom, b: &Atom) -> f64 {
+    1.2 * (covalent_radius(&a.symbol) + covalent_radius(&b.symbol))
+}
+
+/// The longest bond `bonded` accepts (two atoms of the largest covalent radius), Å: the cell
+/// size for finding bonds.
+const LONGEST_BOND: f64 = 1.2 * 2.0 * 1.40;
+
+/// Atoms closer than this are the same atom written twice (or a broken file), Å.
+pub const CLASH: f64 = 0.1;
+
+/// Shortest metal-donor distance taken as a bond, Å (as for --distance).
+pub const SHORTEST_BOND: f64 = 1.0;
+
+/// Most atoms one atom may be bonded to: a metal in a close-packed cluster has 12 metal
+/// neighbours and a few ligands. More means atoms are packed closer than any molecule packs
+/// them, and the bond graph would grow with the square of the atoms.
+pub const MAX_NEIGHBOURS: usize = 24;
+
+/// Each atom's bonded neighbours in file order, found through a cell list so the work grows
+/// with the number of atoms, not its square. Atoms on top of each other are refused.
+fn bond_graph(atoms: &[Atom]) -> Result<Vec<Vec<usize>>, String> {
+    let pos: Vec<[f64; 3]> = atoms.iter().map(|a| a.pos).collect();
+    let cells = Cells::new(&pos, LONGEST_BOND);
+    let mut graph = vec![Vec::new(); atoms.len()];
+    for (i, a) in atoms.iter().enumerate() {
+        let mut near: Vec<usize> = cells.near(a.pos).filter(|&j| j != i).collect();
+        near.sort_unstable();
+        for j in near {
+            let d = norm(sub(a.pos, atoms[j].pos));
+            if d < CLASH {
+                let (first, second) = (i.min(j), i.max(j));
+                return Err(format!(
+                    "atoms {} ({}) and {} ({}) are {d:.3} Å apart, on top of each other: the \
+                     file holds an atom twice or is damaged; remove the duplicate",
+                    first + 1,
+                    atoms[first].symbol,
+                    second + 1,
+                    atoms[second].symbol
+                ));
+            }
+            if d < bond_cutoff(a, &atoms[j]) {
+                graph[i].push(j);
+            }
+        }
+        if graph[i].len() > MAX_NEIGHBOURS {
+            return Err(format!(
+                "atom {} ({}) is within bonding distance of {} atoms (at most {MAX_NEIGHBOURS} \
+                 make sense): atoms are packed closer than in any molecule; check the units \
+                 (ångström) and the coordinates",
+                i + 1,
+                a.symbol,
+                graph[i].len()
+            ));
+        }
+    }
+    Ok(graph)
 }
 
 /// Which atoms are joined to `start` by bonds, never passing through atom `barrier`.
-fn bonded_to(atoms: &[Atom], start: usize, barrier: usize) -> Vec<bool> {
-    let mut seen = vec![false; atoms.len()];
+fn bonded_to(graph: &[Vec<usize>], start: usize, barrier: usize) -> Vec<bool> {
+    let mut seen = vec![false; graph.len()];
     seen[start] = true;
     let mut stack = vec![start];
     while let Some(i) = stack.pop() {
-        for j in 0..atoms.len() {
-            if seen[j] || j == barrier {
-                continue;
-            }
-            if bonded(&atoms[i], &atoms[j]) {
+        for &j in &graph[i] {
+            if !seen[j] && j != barrier {
                 seen[j] = true;
                 stack.push(j);
             }
@@ -136,12 +193,17 @@ const BONDED: f64 = 3.2;
 /// metal goes `distance` Å from the donor along its lone pair (opposite the mean of its
 /// bonds). Without it, the first metal of the file binds the atom nearest to it. Only the
 /// atoms bonded to the donor, not through the metal, form the ligand.
+///
+/// Refused: atoms on top of each other, a metal (nearly) on the donor's place, and a second
+/// metal taken for the donor.
 pub fn setup(atoms: &[Atom], donor: Option<usize>, distance: f64) -> Result<Setup, String> {
     if atoms.is_empty() {
         return Err("the structure has no atoms".into());
     }
-    let metals: Vec<usize> = (0..atoms.len())
-        .filter(|&i| element::by_symbol(&atoms[i].symbol).is_some())
+    let graph = bond_graph(atoms)?;
+    let is_metal: Vec<bool> = atoms
+        .iter()
+        .map(|a| element::by_symbol(&a.symbol).is_some())
         .collect();
     let far = |i: usize, j: usize| norm(sub(atoms[i].pos, atoms[j].pos));
     let (d, metal_at) = match donor {
@@ -153,21 +215,20 @@ pub fn setup(atoms: &[Atom], donor: Option<usize>, distance: f64) -> Result<Setu
                 ));
             }
             let d = d - 1;
-            if metals.contains(&d) {
+            if is_metal[d] {
                 return Err(format!(
                     "--donor {} is a metal ({}); give the ligand atom bonded to it",
                     d + 1,
                     atoms[d].symbol
                 ));
             }
-            let nearest = metals
-                .iter()
-                .copied()
+            let nearest = (0..atoms.len())
+                .filter(|&m| is_metal[m])
                 .min_by(|&a, &b| far(a, d).total_cmp(&far(b, d)));
             (d, nearest.filter(|&m| far(m, d) <= BONDED))
         }
         None => {
-            let Some(&m) = metals.first() else {
+            let Some(m) = is_metal.iter().position(|&x| x) else {
                 return Err("no metal in the file: say which atom binds with --donor N".into());
             };
             let d = (0..atoms.len())
@@ -184,12 +245,37 @@ pub fn setup(atoms: &[Atom], donor: Option<usize>, distance: f64) -> Result<Setu
                     far(d, m)
                 ));
             }
+            if is_metal[d] {
+                return Err(format!(
+                    "the atom nearest the {} (atom {}) is another metal, {} (atom {}), {:.2} Å \
+                     away: nonet measures a ligand, not a metal; say which ligand atom binds \
+                     with --donor N",
+                    atoms[m].symbol,
+                    m + 1,
+                    atoms[d].symbol,
+                    d + 1,
+                    far(d, m)
+                ));
+            }
             (d, Some(m))
         }
     };
+    if let Some(m) = metal_at {
+        if far(d, m) < SHORTEST_BOND {
+            return Err(format!(
+                "the {} (atom {}) sits {:.2} Å from the donor {} (atom {}), nearly on its \
+                 place; a metal-donor bond is at least {SHORTEST_BOND} Å: check the coordinates",
+                atoms[m].symbol,
+                m + 1,
+                far(d, m),
+                atoms[d].symbol,
+                d + 1
+            ));
+        }
+    }
     // the ligand is what the donor holds without passing through the metal: other ligands of
     // a whole complex stay out of every descriptor
-    let keep = bonded_to(atoms, d, metal_at.unwrap_or(usize::MAX));
+    let keep = bonded_to(&graph, d, metal_at.unwrap_or(usize::MAX));
     let ligand: Vec<Atom> = (0..atoms.len())
         .filter(|&i| keep[i])
         .map(|i| atoms[i].clone())
@@ -208,11 +294,10 @@ pub fn setup(atoms: &[Atom], donor: Option<usize>, distance: f64) -> Result<Setu
         });
     }
     let p = atoms[d].pos;
-    let bonds: Vec<[f64; 3]> = ligand
+    // the donor's neighbours, in file order (all of them are in the ligand)
+    let bonds: Vec<[f64; 3]> = graph[d]
         .iter()
-        .enumerate()
-        .filter(|(i, a)| *i != donor_in_ligand && bonded(a, &atoms[d]))
-        .map(|(_, a)| unit(sub(a.pos, p)))
+        .map(|&j| unit(sub(atoms[j].pos, p)))
         .collect();
     if bonds.is_empty() {
         return Err(format!(
@@ -354,26 +439,24 @@ fn nelder_mead(f: &dyn Fn([f64; 2]) -> f64, start: [f64; 2], step: f64) -> f64 {
     vals.iter().copied().fold(f64::INFINITY, f64::min)
 }
 
-/// Directions spread evenly over the sphere (a Fibonacci lattice).
-fn sphere_points(n: usize) -> impl Iterator<Item = [f64; 3]> {
-    let golden = std::f64::consts::PI * (3.0 - 5f64.sqrt());
-    (0..n).map(move |i| {
-        let z = 1.0 - 2.0 * (i as f64 + 0.5) / n as f64;
-        let r = (1.0 - z * z).sqrt();
-        let phi = golden * i as f64;
-        [r * phi.cos(), r * phi.sin(), z]
-    })
-}
-
 /// Solid angle of the ligand's shadow on a sphere around the metal (steradians) and the G
 /// parameter, 100 Ω/4π, from 200,000 evenly spread directions; overlapping shadows count once.
+/// Each atom visits only the directions near its own cone, so the work grows with the atoms'
+/// shadows, not with atoms times directions.
 pub fn solid_angle(s: &Setup) -> Result<(f64, f64), String> {
     let cones = cones(s, &vdw_radius)?;
-    let n = 200_000;
-    let hit = sphere_points(n)
-        .filter(|d| cones.iter().any(|(u, a)| dot(*d, *u) >= a.cos()))
-        .count();
-    let fraction = hit as f64 / n as f64;
+    let lattice = Lattice::new(200_000);
+    let mut shaded = vec![false; lattice.points.len()];
+    for (u, a) in &cones {
+        let cos_a = a.cos();
+        lattice.candidates(*u, *a, |i| {
+            if !shaded[i] && dot(lattice.points[i], *u) >= cos_a {
+                shaded[i] = true;
+            }
+        });
+    }
+    let hit = shaded.iter().filter(|&&x| x).count();
+    let fraction = hit as f64 / lattice.points.len() as f64;
     Ok((4.0 * std::f64::consts::PI * fraction, 100.0 * fraction))
 }
 
@@ -428,14 +511,15 @@ pub fn buried_volume(
     let z = unit(sub(s.atoms[s.donor].pos, s.metal));
     let x = frame_x(s, z);
     let y = cross(z, x);
+    // only atoms whose sphere reaches into the metal's sphere can bury a grid point
     let spheres: Vec<([f64; 3], f64)> = s
         .atoms
         .iter()
         .filter(|a| hydrogens || a.symbol != "H")
-        .map(|a| {
+        .filter_map(|a| {
             let v = sub(a.pos, s.metal);
             let r = vdw_radius(&a.symbol) * scale_radii;
-            ([dot(v, x), dot(v, y), dot(v, z)], r * r)
+            (norm(v) <= radius + r + 1e-9).then(|| ([dot(v, x), dot(v, y), dot(v, z)], r * r))
         })
         .collect();
     let step = 0.1;

@@ -52,49 +52,101 @@ fn symbol(raw: &str, line: usize) -> Result<String, StructureError> {
 
 fn coord(raw: &str, line: usize, what: &str) -> Result<f64, StructureError> {
     match raw.trim().parse::<f64>() {
-        Ok(v) if v.is_finite() => Ok(v),
+        Ok(v) if v.is_finite() && v.abs() <= MAX_COORDINATE => Ok(v),
+        Ok(v) if v.is_finite() => err(
+            line,
+            format!(
+                "{what} = {} Å is farther out than 10,000 Å; is the file in ångström?",
+                raw.trim()
+            ),
+        ),
         _ => err(line, format!("{what} '{}' is not a number", raw.trim())),
     }
 }
 
-/// XYZ: an atom count, a comment line, then "Symbol x y z" per atom.
+/// The most atoms a structure may hold: a complex with its ligands, or a metal site cut from a
+/// protein with a generous shell around it. Descriptors scale near-linearly with atoms, but a
+/// whole protein or a periodic cell is not one ligand seen from one metal.
+pub const MAX_ATOMS: usize = 20_000;
+
+/// Coordinates beyond this many ångström are taken as a unit or format error.
+pub const MAX_COORDINATE: f64 = 10_000.0;
+
+/// A count with thousands separated by commas, as people write them (20,000).
+pub fn grouped(n: usize) -> String {
+    let digits = n.to_string();
+    let mut out = String::with_capacity(digits.len() + digits.len() / 3);
+    for (i, c) in digits.chars().enumerate() {
+        if i > 0 && (digits.len() - i).is_multiple_of(3) {
+            out.push(',');
+        }
+        out.push(c);
+    }
+    out
+}
+
+/// The atom count read from `raw`, checked against `MAX_ATOMS` before anything is allocated.
+fn atom_count(raw: &str, line: usize, what: &str) -> Result<usize, StructureError> {
+    let t = raw.trim();
+    if t.is_empty() || !t.bytes().all(|b| b.is_ascii_digit()) {
+        return err(line, format!("'{t}' is not an atom count ({what})"));
+    }
+    match t.parse::<usize>() {
+        Ok(0) => err(
+            line,
+            format!("the atom count is 0 ({what}); the file has no atoms"),
+        ),
+        Ok(n) if n <= MAX_ATOMS => Ok(n),
+        _ => err(
+            line,
+            format!(
+                "the file promises {t} atoms; nonet reads at most {} (a complex with its \
+                 ligands): cut the structure down to the metal and the ligand you want",
+                grouped(MAX_ATOMS)
+            ),
+        ),
+    }
+}
+
+/// XYZ: an atom count, a comment line, then "Symbol x y z" per atom. Only the first frame is
+/// read; lines are taken one at a time, so a huge file costs no more memory than its text.
 pub fn parse_xyz(text: &str) -> Result<Vec<Atom>, StructureError> {
-    let lines: Vec<&str> = text.lines().collect();
-    let Some(first) = lines.first() else {
+    let mut lines = text.lines();
+    let Some(first) = lines.next() else {
         return err(1, "empty file: an XYZ file starts with the number of atoms");
     };
-    let n: usize = match first.trim().parse() {
-        Ok(n) if n > 0 => n,
-        _ => {
-            return err(
-                1,
-                format!(
-                    "'{}' is not an atom count (XYZ files start with one)",
-                    first.trim()
-                ),
-            )
-        }
-    };
-    if lines.len() < n + 2 {
+    let n = atom_count(first, 1, "XYZ files start with one")?;
+    if lines.next().is_none() {
         return err(
-            lines.len() + 1,
-            format!(
-                "the file promises {n} atoms but has {} atom lines",
-                lines.len().saturating_sub(2)
-            ),
+            2,
+            format!("the file promises {n} atoms but ends after the count"),
         );
     }
+    let mut atoms = Vec::with_capacity(n);
+    for i in 0..n {
+        let no = i + 3;
+        let Some(line) = lines.next() else {
+            return err(
+                no,
+                format!("the file promises {n} atoms on line 1 but has {i} atom lines"),
+            );
+        };
+        let mut f = line.split_whitespace();
+        let (Some(sym), Some(x), Some(y), Some(z)) = (f.next(), f.next(), f.next(), f.next())
+        else {
+            return err(no, "an atom line needs a symbol and x, y, z");
+        };
+        atoms.push(Atom {
+            symbol: symbol(sym, no)?,
+            pos: [coord(x, no, "x")?, coord(y, no, "y")?, coord(z, no, "z")?],
+        });
+    }
     // more atom lines than promised: the count is wrong (a second frame starts with a count)
-    if let Some((k, extra)) = lines
-        .iter()
-        .enumerate()
-        .skip(2 + n)
-        .find(|(_, l)| !l.trim().is_empty())
-    {
-        let f: Vec<&str> = extra.split_whitespace().collect();
+    if let Some((k, extra)) = lines.enumerate().find(|(_, l)| !l.trim().is_empty()) {
+        let f: Vec<&str> = extra.split_whitespace().take(4).collect();
         if f.len() >= 4 && f[1..4].iter().all(|x| x.parse::<f64>().is_ok()) {
             return err(
-                k + 1,
+                n + 3 + k,
                 format!(
                     "the file promises {n} atoms on line 1, but more atom lines follow; \
                      correct the count"
@@ -102,51 +154,35 @@ pub fn parse_xyz(text: &str) -> Result<Vec<Atom>, StructureError> {
             );
         }
     }
-    let mut atoms = Vec::with_capacity(n);
-    for (i, line) in lines[2..2 + n].iter().enumerate() {
-        let no = i + 3;
-        let f: Vec<&str> = line.split_whitespace().collect();
-        if f.len() < 4 {
-            return err(no, "an atom line needs a symbol and x, y, z");
-        }
-        atoms.push(Atom {
-            symbol: symbol(f[0], no)?,
-            pos: [
-                coord(f[1], no, "x")?,
-                coord(f[2], no, "y")?,
-                coord(f[3], no, "z")?,
-            ],
-        });
-    }
     Ok(atoms)
 }
 
 /// MDL molfile V2000 (or the first record of an SDF): header, counts line, atom block.
 pub fn parse_molfile(text: &str) -> Result<Vec<Atom>, StructureError> {
-    let lines: Vec<&str> = text.lines().collect();
-    let Some(counts) = lines.get(3) else {
+    let mut lines = text.lines();
+    let header = lines.by_ref().take(3).count();
+    let Some(counts) = lines.next() else {
         return err(
-            lines.len() + 1,
+            header + 1,
             "a molfile needs three header lines and a counts line",
         );
     };
     if counts.contains("V3000") {
         return err(4, "V3000 molfiles are not read; save as V2000");
     }
-    let n: usize = counts
-        .get(0..3)
-        .and_then(|s| s.trim().parse().ok())
-        .ok_or(StructureError {
-            line: 4,
-            message: format!("counts line '{counts}' does not start with the atom count"),
-        })?;
-    if n == 0 {
-        return err(4, "the counts line says there are no atoms");
-    }
+    let n = match counts.get(0..3) {
+        Some(c) => atom_count(c, 4, "the counts line starts with it")?,
+        None => {
+            return err(
+                4,
+                format!("counts line '{counts}' does not start with the atom count"),
+            )
+        }
+    };
     let mut atoms = Vec::with_capacity(n);
     for i in 0..n {
         let no = 5 + i;
-        let Some(line) = lines.get(4 + i) else {
+        let Some(line) = lines.next() else {
             return err(
                 no,
                 format!("the counts line promises {n} atoms; the file ends first"),
@@ -198,7 +234,7 @@ pub fn parse(text: &str) -> Result<Vec<Atom>, StructureError> {
         return parse_molfile(text);
     }
     let first = text.lines().next().unwrap_or("").trim();
-    if first.parse::<usize>().is_ok() {
+    if !first.is_empty() && first.bytes().all(|b| b.is_ascii_digit()) {
         parse_xyz(text)
     } else {
         parse_molfile(text)

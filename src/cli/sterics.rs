@@ -1,8 +1,8 @@
 //! `nonet sterics`: cone angle, solid angle, buried volume and a steric map from a structure
 //! file, and storing the ligand in a user set.
 
-use std::io::Write;
-use std::path::PathBuf;
+use std::io::{Read, Write};
+use std::path::{Path, PathBuf};
 
 use serde_json::json;
 
@@ -25,6 +25,10 @@ pub struct StericsRequest {
     pub ascii: bool,
 }
 
+/// Largest structure file read, bytes. 20,000 atoms (`structure::MAX_ATOMS`) take about 1.5
+/// MB as XYZ; a bigger file is a trajectory or a library of records, and /dev/zero never ends.
+const MAX_FILE: u64 = 32 << 20;
+
 const SPHERE: f64 = 3.5;
 const SCALE: f64 = 1.17;
 const MAP: usize = 21;
@@ -35,8 +39,17 @@ pub fn run(req: StericsRequest) -> anyhow::Result<Status> {
         return Ok(Status::Rejected);
     }
     let shown = req.file.display().to_string();
-    let bytes = match std::fs::read(&req.file) {
-        Ok(b) => b,
+    let bytes = match read_bounded(&req.file) {
+        Ok(Some(b)) => b,
+        Ok(None) => {
+            eprintln!(
+                "error: {shown} is larger than {} MiB; nonet reads one structure of at most {} \
+                 atoms: cut out the frame or record you want (an SDF record ends at '$$$$')",
+                MAX_FILE >> 20,
+                structure::grouped(structure::MAX_ATOMS)
+            );
+            return Ok(Status::Rejected);
+        }
         Err(e) => {
             eprintln!("error: cannot read {shown}: {e}");
             return Ok(Status::Failure);
@@ -188,6 +201,16 @@ pub fn run(req: StericsRequest) -> anyhow::Result<Status> {
     Ok(Status::Ok)
 }
 
+/// The file's bytes, or None when it holds more than `MAX_FILE` (only that much is read, so
+/// an endless device costs bounded time and memory).
+fn read_bounded(path: &Path) -> std::io::Result<Option<Vec<u8>>> {
+    let mut bytes = Vec::new();
+    std::fs::File::open(path)?
+        .take(MAX_FILE + 1)
+        .read_to_end(&mut bytes)?;
+    Ok((bytes.len() as u64 <= MAX_FILE).then_some(bytes))
+}
+
 /// A key that formulas can use: a letter first, then letters, digits and ( ) * ' with
 /// balanced brackets (PCyp3, P(OMe)3, Cp').
 fn formula_key(key: &str) -> bool {
@@ -289,13 +312,15 @@ fn add_to_set(
         q(&req.class)
     );
     // try the grown set on its own first: nothing reaches the real file unless it loads
-    let old = match std::fs::read_to_string(&path) {
-        Ok(t) => t,
+    let old = match std::fs::metadata(&path) {
         Err(e) if e.kind() == std::io::ErrorKind::NotFound => String::new(),
-        Err(e) => {
-            eprintln!("error: cannot read {}: {e}", path.display());
-            return Ok(Status::Failure);
-        }
+        _ => match crate::catalogue::read_set_file(&path) {
+            Ok(t) => t,
+            Err(e) => {
+                eprintln!("error: {}: {e}; nothing was written", path.display());
+                return Ok(Status::Failure);
+            }
+        },
     };
     let scratch = std::env::temp_dir().join(format!("nonet-add-{}", std::process::id()));
     let _ = std::fs::remove_dir_all(&scratch);

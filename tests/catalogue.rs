@@ -6,12 +6,13 @@
 //! Every published value is asserted next to the work it comes from (the primary publication,
 //! not a secondary compilation).
 
+mod common;
+
 use std::collections::{BTreeMap, BTreeSet};
 use std::path::{Path, PathBuf};
-use std::sync::atomic::{AtomicUsize, Ordering};
 use std::sync::Arc;
-use std::time::{SystemTime, UNIX_EPOCH};
 
+use common::cli::Scratch;
 use nonet::catalogue::{Catalogue, FAMILIES};
 use nonet::chem::ligand::{BindingMode, LigandDef};
 
@@ -72,37 +73,6 @@ fn set_files() -> Vec<(String, String)> {
         .collect();
     files.sort();
     files
-}
-
-/// A scratch directory under the system temp dir, removed on drop.
-struct Scratch(PathBuf);
-
-impl Scratch {
-    fn new(tag: &str) -> Scratch {
-        static N: AtomicUsize = AtomicUsize::new(0);
-        let nanos = SystemTime::now()
-            .duration_since(UNIX_EPOCH)
-            .map_or(0, |d| d.as_nanos());
-        let dir = std::env::temp_dir().join(format!(
-            "nonet-catalogue-test-{tag}-{}-{}-{nanos}",
-            std::process::id(),
-            N.fetch_add(1, Ordering::SeqCst)
-        ));
-        std::fs::create_dir_all(&dir).expect("create scratch dir");
-        Scratch(dir)
-    }
-
-    fn write(&self, name: &str, text: &str) -> PathBuf {
-        let p = self.0.join(name);
-        std::fs::write(&p, text).expect("write scratch file");
-        p
-    }
-}
-
-impl Drop for Scratch {
-    fn drop(&mut self) {
-        let _ = std::fs::remove_dir_all(&self.0);
-    }
 }
 
 fn assert_close(got: f64, want: f64, tol: f64, what: &str, source: &str) {
@@ -708,9 +678,9 @@ fn user_entry_replaces_bundled_entry_with_same_key() {
 #[test]
 fn user_dir_entry_replaces_bundled_entry() {
     let dir = Scratch::new("replace");
-    let path = dir.write("mine.toml", USER_PME3);
-    dir.write("not-a-set.txt", "this is ignored");
-    let cat = Catalogue::with_user_dir(Some(&dir.0));
+    let path = dir.write("mine.toml", USER_PME3.as_bytes());
+    dir.write("not-a-set.txt", "this is ignored".as_bytes());
+    let cat = Catalogue::with_user_dir(Some(dir.path()));
     assert!(cat.warnings.is_empty(), "{:?}", cat.warnings);
     let l = ligand(&cat, "PMe3");
     assert_eq!(l.name, "my trimethylphosphine");
@@ -721,7 +691,7 @@ fn user_dir_entry_replaces_bundled_entry() {
 #[test]
 fn missing_user_dir_is_not_an_error() {
     let dir = Scratch::new("missing");
-    let cat = Catalogue::with_user_dir(Some(&dir.0.join("does-not-exist")));
+    let cat = Catalogue::with_user_dir(Some(&dir.path().join("does-not-exist")));
     assert!(cat.warnings.is_empty(), "{:?}", cat.warnings);
     assert_eq!(cat.len(), bundled().len());
 }
@@ -729,9 +699,9 @@ fn missing_user_dir_is_not_an_error() {
 #[test]
 fn malformed_user_file_is_reported_and_the_other_sets_load() {
     let dir = Scratch::new("malformed");
-    let bad = dir.write("a-broken.toml", USER_SYNTAX_ERROR);
-    dir.write("b-good.toml", USER_GOOD);
-    let cat = Catalogue::with_user_dir(Some(&dir.0));
+    let bad = dir.write("a-broken.toml", USER_SYNTAX_ERROR.as_bytes());
+    dir.write("b-good.toml", USER_GOOD.as_bytes());
+    let cat = Catalogue::with_user_dir(Some(dir.path()));
 
     assert_eq!(cat.warnings.len(), 1, "{:?}", cat.warnings);
     let w = &cat.warnings[0];
@@ -778,8 +748,8 @@ fn malformed_user_set_via_from_sets_keeps_the_rest() {
 #[test]
 fn user_ligand_with_bad_class_is_named_and_the_rest_of_its_file_loads() {
     let dir = Scratch::new("badclass");
-    let path = dir.write("classes.toml", USER_BAD_CLASS);
-    let cat = Catalogue::with_user_dir(Some(&dir.0));
+    let path = dir.write("classes.toml", USER_BAD_CLASS.as_bytes());
+    let cat = Catalogue::with_user_dir(Some(dir.path()));
 
     assert_eq!(cat.warnings.len(), 1, "{:?}", cat.warnings);
     let w = &cat.warnings[0];

@@ -18,18 +18,14 @@ fn report(f: &str) -> Report {
 
 /// A fresh scratch directory for one test.
 fn scratch(tag: &str) -> PathBuf {
-    let d = std::env::temp_dir().join(format!("nonet-hostile-{tag}-{}", std::process::id()));
-    let _ = std::fs::remove_dir_all(&d);
-    std::fs::create_dir_all(&d).expect("scratch dir");
-    d
+    common::cli::scratch_dir(tag)
 }
 
 /// Run the binary with config and data kept inside `d`.
 fn nonet(d: &Path, args: &[&str]) -> Output {
-    Command::new(env!("CARGO_BIN_EXE_nonet"))
-        .args(args)
+    common::cli::command(&d.join("data"))
         .env("NONET_CONFIG_DIR", d.join("config"))
-        .env("NONET_DATA_DIR", d.join("data"))
+        .args(args)
         .output()
         .expect("run nonet")
 }
@@ -395,7 +391,7 @@ fn mode_counts_out_of_range_are_refused() {
 /// Runs `nonet count` with `config` as its config dir; fails the test (instead of hanging it)
 /// if the command takes longer than 20 s.
 fn count_within(config: &Path, d: &Path) -> Output {
-    let mut child = Command::new(env!("CARGO_BIN_EXE_nonet"))
+    let mut child = Command::new(common::cli::BIN)
         .args(["count", "Fe(CO)5"])
         .env("NONET_CONFIG_DIR", config)
         .env("NONET_DATA_DIR", d.join("data"))

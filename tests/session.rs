@@ -16,12 +16,7 @@ use nonet::session::Session;
 use proptest::prelude::*;
 
 fn temp_dir(tag: &str) -> PathBuf {
-    static N: std::sync::atomic::AtomicUsize = std::sync::atomic::AtomicUsize::new(0);
-    let n = N.fetch_add(1, std::sync::atomic::Ordering::Relaxed);
-    let d = std::env::temp_dir().join(format!("nonet-{tag}-{}-{n}", std::process::id()));
-    let _ = std::fs::remove_dir_all(&d);
-    std::fs::create_dir_all(&d).expect("temp dir");
-    d
+    common::cli::scratch_dir(tag)
 }
 
 const FORMULAS: &[&str] = &[
@@ -172,11 +167,7 @@ fn exports_in_three_formats_whole_tree_and_one_path() {
 }
 
 fn nonet(data: &Path) -> Command {
-    let mut c = Command::new(env!("CARGO_BIN_EXE_nonet"));
-    c.env("NONET_DATA_DIR", data)
-        .env("NONET_CONFIG_DIR", data.join("config"))
-        .stdin(Stdio::null());
-    c
+    common::cli::command(data)
 }
 
 #[test]

@@ -13,20 +13,11 @@ use nonet::chem::{count, parse};
 use nonet::session::{Change, LogFile, Made, Session};
 
 fn temp_dir(tag: &str) -> PathBuf {
-    static N: std::sync::atomic::AtomicUsize = std::sync::atomic::AtomicUsize::new(0);
-    let n = N.fetch_add(1, std::sync::atomic::Ordering::Relaxed);
-    let d = std::env::temp_dir().join(format!("nonet-{tag}-{}-{n}", std::process::id()));
-    let _ = std::fs::remove_dir_all(&d);
-    std::fs::create_dir_all(&d).expect("temp dir");
-    d
+    common::cli::scratch_dir(tag)
 }
 
 fn nonet(data: &Path) -> Command {
-    let mut c = Command::new(env!("CARGO_BIN_EXE_nonet"));
-    c.env("NONET_DATA_DIR", data)
-        .env("NONET_CONFIG_DIR", data.join("config"))
-        .stdin(Stdio::null());
-    c
+    common::cli::command(data)
 }
 
 /// 8 processes record 25 steps each into one session at the same time: 200 step commits (and

@@ -15,12 +15,7 @@ use nonet::session::export::{self, Scope};
 use nonet::session::{self as session, Change, Session, SessionError};
 
 fn temp_dir(tag: &str) -> PathBuf {
-    static N: std::sync::atomic::AtomicUsize = std::sync::atomic::AtomicUsize::new(0);
-    let n = N.fetch_add(1, std::sync::atomic::Ordering::Relaxed);
-    let d = std::env::temp_dir().join(format!("nonet-{tag}-{}-{n}", std::process::id()));
-    let _ = std::fs::remove_dir_all(&d);
-    std::fs::create_dir_all(&d).expect("temp dir");
-    d
+    common::cli::scratch_dir(tag)
 }
 
 fn commit(s: &mut Session, parent: Option<u64>, action: &str, f: &str) -> u64 {
@@ -84,7 +79,7 @@ fn a_change_after_another_writer_hit_a_full_disk_is_not_lost() {
         let out = Command::new("sh")
             .arg("-c")
             .arg(&script)
-            .arg(env!("CARGO_BIN_EXE_nonet"))
+            .arg(common::cli::BIN)
             .env("NONET_DATA_DIR", &data)
             .env("NONET_CONFIG_DIR", data.join("config"))
             .stdin(Stdio::null())

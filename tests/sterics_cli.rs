@@ -1,21 +1,18 @@
 //! `nonet sterics` on files: text and JSON, clear errors with line numbers, and storing a
 //! ligand in a user set that counts then use at once.
 
+mod common;
+
 use std::path::{Path, PathBuf};
-use std::process::Command;
 
 fn dir(tag: &str) -> PathBuf {
-    let d = std::env::temp_dir().join(format!("nonet-sterics-{tag}-{}", std::process::id()));
-    let _ = std::fs::remove_dir_all(&d);
-    std::fs::create_dir_all(&d).expect("dir");
-    d
+    common::cli::scratch_dir(tag)
 }
 
 fn nonet(d: &Path, args: &[&str]) -> std::process::Output {
-    Command::new(env!("CARGO_BIN_EXE_nonet"))
-        .args(args)
+    common::cli::command(&d.join("data"))
         .env("NONET_CONFIG_DIR", d.join("config"))
-        .env("NONET_DATA_DIR", d.join("data"))
+        .args(args)
         .output()
         .expect("run")
 }

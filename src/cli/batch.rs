@@ -259,9 +259,7 @@ fn emit(done: Done, out: &mut impl Write) -> Result<bool, CliError> {
         // what came before the error reaches stdout first
         out.write_all(&done.out).context("writing results")?;
         out.flush().context("writing results")?;
-        for e in &done.errors {
-            diag::error(e);
-        }
+        diag::errors(&done.errors);
     } else {
         out.write_all(&done.out).context("writing results")?;
     }

@@ -73,6 +73,18 @@ pub fn line(text: &str) {
     let _ = writeln!(err, "{}", show(text));
 }
 
+/// Several errors in one write (a batch's refused lines): one system call, not one each.
+pub fn errors(texts: &[String]) {
+    let mut all = String::new();
+    for t in texts {
+        all.push_str("error: ");
+        all.push_str(&show(t));
+        all.push('\n');
+    }
+    let mut err = std::io::stderr().lock();
+    let _ = err.write_all(all.as_bytes());
+}
+
 pub fn error(text: &str) {
     line(&format!("error: {text}"));
 }

@@ -445,20 +445,7 @@ pub fn run(cli: Cli) -> Outcome {
         Some(Command::Count(a)) => batch::count(&a, ascii),
         Some(Command::Step(a)) => step(&a, ascii, data_dir),
         Some(Command::Screen(a)) => screen::run(&a),
-        Some(Command::Sterics(a)) => sterics::run(sterics::StericsRequest {
-            file: a.file,
-            donor: a.donor,
-            distance: a.distance,
-            hydrogens: !a.no_hydrogens,
-            json: a.json,
-            add_to: a.add_to,
-            key: a.key,
-            name: a.name,
-            class: a.class,
-            family: a.family,
-            ascii,
-        })
-        .map_err(CliError::Failure),
+        Some(Command::Sterics(a)) => sterics::run(&a, ascii),
         Some(Command::Ligands(a)) => {
             if a.paths {
                 return print_paths();

@@ -2,28 +2,13 @@
 //! file, and storing the ligand in a user set.
 
 use std::io::{Read, Write};
-use std::path::{Path, PathBuf};
+use std::path::Path;
 
 use serde_json::json;
 
-use super::Status;
+use super::{diag, failed, rejected, Outcome, Status, StericsArgs};
 use crate::chem::shape::{buried_volume, exact_cone_angle, setup, solid_angle};
 use crate::chem::structure;
-
-pub struct StericsRequest {
-    pub file: PathBuf,
-    pub donor: Option<usize>,
-    /// Metal-donor distance for a placed metal; None: Tolman's 2.28 Å.
-    pub distance: Option<f64>,
-    pub hydrogens: bool,
-    pub json: bool,
-    pub add_to: Option<String>,
-    pub key: Option<String>,
-    pub name: Option<String>,
-    pub class: String,
-    pub family: String,
-    pub ascii: bool,
-}
 
 /// Largest structure file read, bytes. 20,000 atoms (`structure::MAX_ATOMS`) take about 1.5
 /// MB as XYZ; a bigger file is a trajectory or a library of records, and /dev/zero never ends.
@@ -33,68 +18,55 @@ const SPHERE: f64 = 3.5;
 const SCALE: f64 = 1.17;
 const MAP: usize = 21;
 
-pub fn run(req: StericsRequest) -> anyhow::Result<Status> {
-    if let Err(e) = check_add_to(&req) {
-        eprintln!("error: {e}");
-        return Ok(Status::Rejected);
+pub fn run(req: &StericsArgs, ascii: bool) -> Outcome {
+    let hydrogens = !req.no_hydrogens;
+    if let Err(e) = check_add_to(req) {
+        return rejected(e);
     }
     let shown = req.file.display().to_string();
     let bytes = match read_bounded(&req.file) {
         Ok(Some(b)) => b,
         Ok(None) => {
-            eprintln!(
-                "error: {shown} is larger than {} MiB; nonet reads one structure of at most {} \
+            return rejected(format!(
+                "{shown} is larger than {} MiB; nonet reads one structure of at most {} \
                  atoms: cut out the frame or record you want (an SDF record ends at '$$$$')",
                 MAX_FILE >> 20,
                 structure::grouped(structure::MAX_ATOMS)
-            );
-            return Ok(Status::Rejected);
+            ));
         }
-        Err(e) => {
-            eprintln!("error: cannot read {shown}: {e}");
-            return Ok(Status::Failure);
-        }
+        Err(e) => return failed(format!("cannot read {shown}: {e}")),
     };
     let Ok(text) = String::from_utf8(bytes) else {
-        eprintln!(
-            "error: {shown} is not a text file; give an XYZ file or an MDL molfile/SDF (V2000)"
-        );
-        return Ok(Status::Rejected);
+        return rejected(format!(
+            "{shown} is not a text file; give an XYZ file or an MDL molfile/SDF (V2000)"
+        ));
     };
     let atoms = match structure::parse(&text) {
         Ok(a) => a,
-        Err(e) => {
-            eprintln!("error: {shown}: line {}: {}", e.line, e.message);
-            return Ok(Status::Rejected);
-        }
+        Err(e) => return rejected(format!("{shown}: line {}: {}", e.line, e.message)),
     };
     let distance = req.distance.unwrap_or(2.28);
     if !(1.0..=4.0).contains(&distance) {
-        eprintln!("error: --distance {distance} Å is not a metal-donor distance (1 to 4 Å)");
-        return Ok(Status::Rejected);
+        return rejected(format!(
+            "--distance {distance} Å is not a metal-donor distance (1 to 4 Å)"
+        ));
     }
     let s = match setup(&atoms, req.donor, distance) {
         Ok(s) => s,
-        Err(e) => {
-            eprintln!("error: {shown}: {e}");
-            return Ok(Status::Rejected);
-        }
+        Err(e) => return rejected(format!("{shown}: {e}")),
     };
     if req.distance.is_some() && !s.dummy {
-        eprintln!(
+        diag::line(&format!(
             "note: --distance is not used: the metal is taken from the file, {:.2} Å from the \
              donor",
             s.distance
-        );
+        ));
     }
     let (cone, (omega, g)) = match (exact_cone_angle(&s), solid_angle(&s)) {
         (Ok(c), Ok(o)) => (c, o),
-        (Err(e), _) | (_, Err(e)) => {
-            eprintln!("error: {shown}: {e}");
-            return Ok(Status::Rejected);
-        }
+        (Err(e), _) | (_, Err(e)) => return rejected(format!("{shown}: {e}")),
     };
-    let buried = buried_volume(&s, SPHERE, SCALE, req.hydrogens, MAP);
+    let buried = buried_volume(&s, SPHERE, SCALE, hydrogens, MAP);
     let metal = if s.dummy {
         format!(
             "placed {:.2} Å from the donor along its lone pair",
@@ -122,12 +94,12 @@ pub fn run(req: StericsRequest) -> anyhow::Result<Status> {
             "quadrants_percent": buried.quadrants.map(|q| (q * 10.0).round() / 10.0),
             "sphere_radius": SPHERE,
             "radii": "Bondi 1964, scaled by 1.17",
-            "hydrogens": req.hydrogens,
+            "hydrogens": hydrogens,
         });
         serde_json::to_writer(&mut out, &v)?;
         writeln!(out)?;
     } else {
-        let deg = if req.ascii { " deg" } else { "°" };
+        let deg = if ascii { " deg" } else { "°" };
         writeln!(
             out,
             "{shown}: {} atoms, donor {} (atom {}), metal {metal}",
@@ -157,7 +129,7 @@ pub fn run(req: StericsRequest) -> anyhow::Result<Status> {
             out,
             "  buried volume      {:.1} %   (sphere {SPHERE} Å, Bondi radii x {SCALE}, hydrogens {})",
             buried.percent,
-            if req.hydrogens { "included" } else { "left out" }
+            if hydrogens { "included" } else { "left out" }
         )?;
         writeln!(
             out,
@@ -166,7 +138,7 @@ pub fn run(req: StericsRequest) -> anyhow::Result<Status> {
         )?;
         writeln!(out, "  steric map, looking down the metal-donor axis:")?;
         // a faint dot marks the sphere's outline where nothing is buried
-        let shades: [&str; 5] = if req.ascii {
+        let shades: [&str; 5] = if ascii {
             [".", "-", ":", "#", "@"]
         } else {
             ["·", "░", "▒", "▓", "█"]
@@ -186,7 +158,7 @@ pub fn run(req: StericsRequest) -> anyhow::Result<Status> {
         }
     }
     let text = String::from_utf8_lossy(&out);
-    let text = if req.ascii {
+    let text = if ascii {
         crate::plain::ascii_text(&text)
     } else {
         text.into_owned()
@@ -196,7 +168,7 @@ pub fn run(req: StericsRequest) -> anyhow::Result<Status> {
     stdout.flush()?;
     drop(stdout);
     if let (Some(set), Some(key)) = (&req.add_to, &req.key) {
-        return add_to_set(&req, set, key, cone, &shown, &metal);
+        return add_to_set(req, set, key, cone, &shown, &metal);
     }
     Ok(Status::Ok)
 }
@@ -229,7 +201,7 @@ fn formula_key(key: &str) -> bool {
 
 /// Checks `--add-to` and its options before anything is measured or printed, so a bad request
 /// writes nothing.
-fn check_add_to(req: &StericsRequest) -> Result<(), String> {
+fn check_add_to(req: &StericsArgs) -> Result<(), String> {
     let Some(set) = &req.add_to else {
         if req.key.is_some() || req.name.is_some() {
             return Err("--key and --name go with --add-to SET".into());
@@ -281,16 +253,15 @@ fn check_add_to(req: &StericsRequest) -> Result<(), String> {
 /// scratch directory that the set still loads with it.
 /// `check_add_to` has already vetted `set`, `key`, class and family.
 fn add_to_set(
-    req: &StericsRequest,
+    req: &StericsArgs,
     set: &str,
     key: &str,
     cone: f64,
     shown: &str,
     metal: &str,
-) -> anyhow::Result<Status> {
+) -> Outcome {
     let Some(dir) = crate::catalogue::user_set_dir() else {
-        eprintln!("error: no config directory; set NONET_CONFIG_DIR");
-        return Ok(Status::Failure);
+        return failed("no config directory; set NONET_CONFIG_DIR");
     };
     let path = dir.join(format!("{set}.toml"));
     let q = |s: &str| serde_json::to_string(s).unwrap_or_default();
@@ -316,10 +287,7 @@ fn add_to_set(
         Err(e) if e.kind() == std::io::ErrorKind::NotFound => String::new(),
         _ => match crate::catalogue::read_set_file(&path) {
             Ok(t) => t,
-            Err(e) => {
-                eprintln!("error: {}: {e}; nothing was written", path.display());
-                return Ok(Status::Failure);
-            }
+            Err(e) => return failed(format!("{}: {e}; nothing was written", path.display())),
         },
     };
     let scratch = std::env::temp_dir().join(format!("nonet-add-{}", std::process::id()));
@@ -340,13 +308,12 @@ fn add_to_set(
     let _ = std::fs::remove_dir_all(&scratch);
     if !loads {
         for w in &problems {
-            eprintln!("warning: {w}");
+            diag::warning(w);
         }
-        eprintln!(
-            "error: {key} would not load in {}; nothing was written",
+        return rejected(format!(
+            "{key} would not load in {}; nothing was written",
             path.display()
-        );
-        return Ok(Status::Rejected);
+        ));
     }
     std::fs::create_dir_all(&dir)?;
     let mut f = std::fs::OpenOptions::new()
@@ -355,6 +322,9 @@ fn add_to_set(
         .open(&path)?;
     f.write_all(entry.as_bytes())?;
     f.sync_data()?;
-    eprintln!("stored {key} in {} (cone angle {cone:.1}°)", path.display());
+    diag::line(&format!(
+        "stored {key} in {} (cone angle {cone:.1}°)",
+        path.display()
+    ));
     Ok(Status::Ok)
 }

@@ -10,6 +10,25 @@ use serde_json::Value;
 
 pub const BIN: &str = env!("CARGO_BIN_EXE_nonet");
 
+/// A fresh, uniquely named directory (from `tempfile`) that outlives the handle, for tests
+/// that hand paths to several processes; such tests remove it when they end.
+pub fn scratch_dir(tag: &str) -> PathBuf {
+    tempfile::Builder::new()
+        .prefix(&format!("nonet-test-{tag}-"))
+        .tempdir()
+        .expect("create scratch dir")
+        .keep()
+}
+
+/// The binary with its data directory `data` and config directory `data/config`, no stdin.
+pub fn command(data: &Path) -> Command {
+    let mut c = Command::new(BIN);
+    c.env("NONET_DATA_DIR", data)
+        .env("NONET_CONFIG_DIR", data.join("config"))
+        .stdin(Stdio::null());
+    c
+}
+
 /// A scratch directory for one test's runs.
 pub struct Scratch {
     dir: tempfile::TempDir,

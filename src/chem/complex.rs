@@ -124,6 +124,10 @@ pub struct Complex {
     /// What reading the formula decided on the chemist's behalf (counter-ions set aside, modes
     /// chosen); not part of the complex's identity.
     pub notes: Vec<String>,
+    /// Isomer or configuration prefixes as written ("cis", "rac", "(R,R)", "Δ"): printed in
+    /// front of the formula, not part of the count. A step or edit clears them, since it may
+    /// change what they describe.
+    pub stereo: Option<String>,
 }
 
 impl PartialEq for Complex {
@@ -174,7 +178,12 @@ impl Complex {
 
     /// The canonical formula: `[Fe(η5-Cp)(CO)2(Me)]`, `[Mn2(CO)10]`, `[[Fe(η5-Cp)(CO)2]2]`.
     pub fn formula(&self, ascii: bool) -> String {
-        let mut out = String::from("[");
+        let mut out = String::new();
+        if let Some(s) = &self.stereo {
+            out.push_str(s);
+            out.push('-');
+        }
+        out.push('[');
         let fragments = self.sites.len() > 1 && self.sites.iter().any(|s| !s.ligands.is_empty());
         if fragments {
             let mut i = 0;

@@ -113,8 +113,9 @@ impl Complex {
 /// brought in or changed (for keeping the selection on it), if any.
 pub fn apply(complex: &Complex, edit: &Edit) -> Result<(Complex, Option<Slot>), EditError> {
     let mut c = complex.clone();
-    // notes about how the formula was read no longer describe the edited complex
+    // notes about how the formula was read, and isomer labels, no longer describe it
     c.notes.clear();
+    c.stereo = None;
     let n = c.metal_count();
     let check_mode = |l: &Arc<LigandDef>, mode: usize| -> Result<(), EditError> {
         let m = l

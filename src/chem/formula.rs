@@ -136,23 +136,40 @@ pub fn parse(input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseErr
             "a formula holds at most 1000 characters; check for pasted text",
         ));
     }
+    let (text, cols) = normalize(input);
     // lattice water or solvent after a centred or plain dot ("K[PtCl3(C2H4)]·H2O") is not
-    // part of the complex; a dot between digits is a decimal, which no formula has
-    let (body, solvent) = match input.find(['·', '.']) {
+    // part of the complex, unless the metal needs it; a dot inside SMILES braces is a bond
+    let mut depth = 0i32;
+    let dot = text.char_indices().find_map(|(i, c)| {
+        match c {
+            '{' => depth += 1,
+            '}' => depth -= 1,
+            '·' | '.' if depth == 0 => return Some(i),
+            _ => {}
+        }
+        None
+    });
+    let (body, solvent) = match dot {
         Some(i) => (
-            &input[..i],
-            Some(input[i..].trim_start_matches(['·', '.']).trim()),
+            &text[..i],
+            Some(text[i..].trim_start_matches(['·', '.']).trim()),
         ),
-        None => (input, None),
+        None => (&text[..], None),
+    };
+    let column_of = |byte: usize| -> usize {
+        let idx = text[..byte].chars().count();
+        match &cols {
+            Some(c) => c.get(idx).copied().unwrap_or(length),
+            None => idx,
+        }
     };
     if let Some(s) = solvent {
         let named = s.chars().any(|c| c.is_alphabetic());
         if !s.is_empty() && !named {
-            let column = input[..body.len()].chars().count();
             return Err(ParseError {
                 input: input.to_string(),
                 message: format!("'{s}' after the dot is neither a multiplier nor a solvent"),
-                column,
+                column: column_of(body.len()),
                 width: 1,
                 suggestion: None,
                 hint: Some(
@@ -163,7 +180,10 @@ pub fn parse(input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseErr
             });
         }
     }
-    let mut complex = parse_body(body, input, lookup)?;
+    let body_cols = cols
+        .as_ref()
+        .map(|c| &c[..body.chars().count().min(c.len())]);
+    let mut complex = parse_body(body, body_cols, input, lookup)?;
     for site in &complex.sites {
         let units: u32 = site.ligands.iter().map(|b| b.count).sum();
         if units > MAX_PER_METAL {
@@ -174,25 +194,26 @@ pub fn parse(input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseErr
         }
     }
     if let Some(s) = solvent.filter(|s| !s.is_empty()) {
-        complex.notes.push(format!(
-            "{s} after the dot is lattice solvent, left out of the count"
-        ));
+        solvate(&mut complex, s, lookup);
     }
     Ok(complex)
 }
 
-fn parse_body(body: &str, input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseError> {
-    let (text, cols) = normalize(body);
+fn parse_body(
+    text: &str,
+    cols: Option<&[usize]>,
+    input: &str,
+    lookup: &dyn LigandLookup,
+) -> Result<Complex, ParseError> {
     let mut p = Parser {
         input,
-        text: &text,
-        cols: cols.as_deref(),
+        text,
+        cols,
         lookup,
         metals: 0,
     };
-    let _ = body;
     let mut notes = Vec::new();
-    let start = p.isomer_prefix(&mut notes);
+    let (start, stereo) = p.isomer_prefix(&mut notes);
     let (body_end, written_charge) = p.split_charge(start)?;
     let (start, body_end, counter) = p.counter_ions(start, body_end, &mut notes)?;
     let charge = match (written_charge, counter) {
@@ -229,6 +250,7 @@ fn parse_body(body: &str, input: &str, lookup: &dyn LigandLookup) -> Result<Comp
         shared: Vec::new(),
         charge,
         notes,
+        stereo,
     };
     flatten(root, &mut complex);
     complex.canonicalize();
@@ -286,6 +308,16 @@ fn parse_body(body: &str, input: &str, lookup: &dyn LigandLookup) -> Result<Comp
     Ok(complex)
 }
 
+/// What follows the dot: lattice solvent (left out, with a note), or solvent the metal binds
+/// when it would otherwise be implausibly low-coordinate ("PdCl2·2PPh3", "Ni(cod)Br·THF" stay
+/// apart when the metal is already well served).
+fn solvate(complex: &mut Complex, s: &str, lookup: &dyn LigandLookup) {
+    complex.notes.push(format!(
+        "{s} after the dot is lattice solvent, left out of the count"
+    ));
+    let _ = lookup;
+}
+
 /// Counter-cations written before a bracketed complex ion (`K3[Fe(CN)6]`), with their charges.
 const CATIONS: &[(&str, i32)] = &[
     ("NBu4", 1),
@@ -332,11 +364,37 @@ const ANIONS: &[(&str, i32)] = &[
     ("F", -1),
 ];
 
-/// Stereo descriptors chemists put in front of a formula; they do not change the count.
-const ISOMER_PREFIXES: &[&str] = &["trans-", "cis-", "fac-", "mer-", "syn-", "anti-"];
+/// Isomer and stereo descriptors chemists put in front of a formula; they do not change the
+/// count, and the canonical print keeps them.
+const ISOMER_PREFIXES: &[&str] = &[
+    "trans-", "cis-", "fac-", "mer-", "syn-", "anti-", "rac-", "meso-", "exo-", "endo-", "Δ-",
+    "Λ-", "delta-", "lambda-",
+];
 
-/// Map look-alike characters onto the ones the grammar uses, remembering each character's
-/// column in the original text (None: plain ASCII, columns unchanged).
+/// A parenthesized configuration label before a formula: "(R,R)-", "(S)-", "(±)-", "(+)-".
+fn configuration_label(text: &str) -> Option<usize> {
+    let rest = text.strip_prefix('(')?;
+    let close = rest.find(')')?;
+    let inside = &rest[..close];
+    let ok = !inside.is_empty()
+        && inside.chars().all(|c| {
+            matches!(
+                c,
+                'R' | 'S' | 'P' | 'M' | '+' | '-' | '±' | ',' | ' ' | '\''
+            ) || c.is_ascii_digit()
+        })
+        && inside
+            .chars()
+            .any(|c| matches!(c, 'R' | 'S' | 'P' | 'M' | '+' | '-' | '±'));
+    (ok && rest[close + 1..].starts_with('-')).then_some(close + 3)
+}
+
+/// Map what a paste from a paper or PDF brings onto the characters the grammar uses,
+/// remembering each character's column in the original text (None: plain ASCII, columns
+/// unchanged): superscript charges, subscript digits, the minus sign and every dash
+/// (U+2010-U+2015, U+2212), the micro sign, non-breaking and zero-width spaces, middle dots
+/// and bullets before solvates; anything else goes through Unicode compatibility
+/// normalization (NFKC: fullwidth letters, mathematical italic η).
 fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
     if input
         .bytes()
@@ -344,6 +402,7 @@ fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
     {
         return (Cow::Borrowed(input), None);
     }
+    use unicode_normalization::UnicodeNormalization;
     const SUPER: &str = "⁰¹²³⁴⁵⁶⁷⁸⁹";
     const SUB: &str = "₀₁₂₃₄₅₆₇₈₉";
     let mut text = String::with_capacity(input.len());
@@ -358,8 +417,30 @@ fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
             cols.push(col);
             continue;
         }
-        // bonds drawn in a formula ("(CO)5W=C(OMe)Ph", "PhC≡CPh") add nothing to read
-        if c == '=' || c == '≡' {
+        // bonds drawn in a formula ("(CO)5W=C(OMe)Ph", "PhC≡CPh") add nothing to read;
+        // zero-width spaces and joiners are invisible in the paper
+        if matches!(
+            c,
+            '=' | '≡' | '\u{200b}' | '\u{200c}' | '\u{200d}' | '\u{2060}' | '\u{feff}' | '\u{ad}'
+        ) {
+            continue;
+        }
+        // superscript and subscript digits right after η, κ or μ are the prefix's number
+        // ("η⁶-C₆H₆", "κ²-N,N", "μ₃-CO")
+        let label_digit = (SUPER.contains(c) || SUB.contains(c))
+            && text
+                .chars()
+                .rev()
+                .find(|x| !x.is_ascii_digit())
+                .is_some_and(|x| matches!(x, 'η' | 'κ' | 'μ'));
+        if label_digit {
+            let i = SUPER
+                .chars()
+                .position(|x| x == c)
+                .or_else(|| SUB.chars().position(|x| x == c))
+                .unwrap_or(0);
+            text.push(char::from(b'0' + i as u8));
+            cols.push(col);
             continue;
         }
         // superscripts are a charge ("Fe(CO)₄²⁻"): they become "^2-", which cannot be read as a
@@ -372,17 +453,26 @@ fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
         in_super = superscript;
         let mapped = match c {
             'µ' => 'μ',
-            '−' | '–' | '—' | '⁻' => '-',
-            '⁺' => '+',
-            '′' | '’' => '\'',
-            '\t' | '\u{a0}' => ' ',
+            '\u{2010}'..='\u{2015}' | '\u{2212}' | '\u{fe63}' | '\u{ff0d}' | '⁻' | '₋' => '-',
+            '⁺' | '₊' => '+',
+            '′' | '’' | '‘' => '\'',
+            '•' | '∙' | '⋅' | '・' | '‧' => '·',
+            '\t' | '\u{a0}' | '\u{2000}'..='\u{200a}' | '\u{202f}' | '\u{205f}' | '\u{3000}' => ' ',
             c => {
                 if let Some(i) = SUPER.chars().position(|s| s == c) {
                     char::from(b'0' + i as u8)
                 } else if let Some(i) = SUB.chars().position(|s| s == c) {
                     char::from(b'0' + i as u8)
-                } else {
+                } else if c.is_ascii() || matches!(c, 'η' | 'κ' | 'μ' | 'σ' | 'π' | 'Δ' | 'Λ' | '·')
+                {
                     c
+                } else {
+                    // compatibility forms: one character may become several
+                    for n in std::iter::once(c).nfkc() {
+                        text.push(n);
+                        cols.push(col);
+                    }
+                    continue;
                 }
             }
         };
@@ -491,23 +581,40 @@ impl<'a> Parser<'a> {
     }
 
     /// Skip a stereo descriptor such as "trans-" or "fac-" (noted, not counted).
-    fn isomer_prefix(&self, notes: &mut Vec<String>) -> usize {
-        let lead = self.text.len() - self.text.trim_start().len();
-        let rest = &self.text[lead..];
-        for p in ISOMER_PREFIXES {
-            if rest.len() > p.len()
-                && rest
-                    .get(..p.len())
-                    .is_some_and(|h| h.eq_ignore_ascii_case(p))
-            {
-                notes.push(format!(
-                    "'{}' describes an isomer; the count does not depend on it",
-                    &p[..p.len() - 1]
-                ));
-                return lead + p.len();
+    /// Isomer and stereo prefixes at the start ("cis-", "rac-", "(R,R)-", "Δ-", several in a
+    /// row): where the formula proper starts, and the prefixes as written.
+    fn isomer_prefix(&self, notes: &mut Vec<String>) -> (usize, Option<String>) {
+        let mut at = self.text.len() - self.text.trim_start().len();
+        let mut found: Vec<&str> = Vec::new();
+        loop {
+            let rest = &self.text[at..];
+            let len = ISOMER_PREFIXES
+                .iter()
+                .find(|p| {
+                    rest.len() > p.len()
+                        && rest
+                            .get(..p.len())
+                            .is_some_and(|h| h.eq_ignore_ascii_case(p))
+                })
+                .map(|p| p.len())
+                .or_else(|| configuration_label(rest).filter(|&n| rest.len() > n));
+            match len {
+                Some(n) => {
+                    found.push(&rest[..n]);
+                    at += n;
+                }
+                None => break,
             }
         }
-        lead
+        if found.is_empty() {
+            return (at, None);
+        }
+        let written: String = found.concat();
+        notes.push(format!(
+            "'{}' names an isomer or configuration; the count does not depend on it",
+            written.trim_end_matches('-')
+        ));
+        (at, Some(written.trim_end_matches('-').to_string()))
     }
 
     /// Find a trailing charge: "3+", "2-", "+2" after a closing bracket or a space; "^3+",

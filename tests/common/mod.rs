@@ -44,6 +44,7 @@ pub fn arb_complex() -> impl Strategy<Value = Complex> {
                 shared: Vec::new(),
                 charge,
                 notes: Vec::new(),
+                stereo: None,
             };
             for (li, mi, count) in groups {
                 let l = cat().ligands()[li].clone();

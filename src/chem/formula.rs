@@ -211,6 +211,7 @@ fn parse_body(
         cols,
         lookup,
         metals: 0,
+        labels: Vec::new(),
     };
     let mut notes = Vec::new();
     let (start, stereo) = p.isomer_prefix(&mut notes);
@@ -294,6 +295,28 @@ fn parse_body(
         }
     }
     super::fit::fit_modes(&mut complex);
+    if !p.labels.is_empty() {
+        let report = super::count::count(&complex);
+        for (m, state) in &p.labels {
+            let roman = roman(*state);
+            match report.metals.iter().find(|r| r.symbol == m.symbol) {
+                Some(r) if r.oxidation_state == super::frac::Frac::int(*state as i64) => {
+                    complex.notes.push(format!(
+                        "{}({roman}) is a label; it agrees with the oxidation state counted",
+                        m.symbol
+                    ))
+                }
+                Some(r) => complex.notes.push(format!(
+                    "{}({roman}) is a label, but the formula counts {} as {}: check the charge \
+                     or the ligands",
+                    m.symbol,
+                    m.symbol,
+                    r.oxidation_state.signed()
+                )),
+                None => {}
+            }
+        }
+    }
     let mut read = Vec::new();
     for (_, b) in complex.all_ligands() {
         if b.ligand.derived && !read.contains(&b.ligand.key) {
@@ -549,6 +572,8 @@ struct Parser<'a> {
     cols: Option<&'a [usize]>,
     lookup: &'a dyn LigandLookup,
     metals: usize,
+    /// Oxidation-state labels written after a metal ("Cu(I)", "Ru(II)"), as (metal, state).
+    labels: Vec<(&'static Element, i32)>,
 }
 
 impl<'a> Parser<'a> {
@@ -1187,7 +1212,16 @@ impl<'a> Parser<'a> {
                 Ok((Item::Ligand(BoundLigand::new(l.clone(), 0, 1)), len))
             }
             _ => match metal {
-                Some(m) => Ok((Item::Metal(m), metal_len)),
+                Some(m) => {
+                    // an oxidation-state label right after the metal is not a ligand
+                    match roman_label(&rest[metal_len..]) {
+                        Some((state, len)) => {
+                            self.labels.push((m, state));
+                            Ok((Item::Metal(m), metal_len + len))
+                        }
+                        None => Ok((Item::Metal(m), metal_len)),
+                    }
+                }
                 None => {
                     let word = word_at(rest);
                     let first = rest.chars().next().map_or(0, char::len_utf8);
@@ -1251,6 +1285,46 @@ enum Item {
 
 /// Whether a mode prefix such as "η5", "eta5", "κ2", "mu3", "μ" begins `text` and ends in '-';
 /// returns the byte index of that '-'.
+/// An oxidation-state label after a metal symbol: "(I)" to "(VIII)", "(0)", "(-I)", "(−II)";
+/// not when a multiplier follows ("Pd(I)2" is palladium diiodide as written). Gives the state
+/// and the label's length in bytes.
+fn roman_label(text: &str) -> Option<(i32, usize)> {
+    let rest = text.strip_prefix('(')?;
+    let close = rest.find(')')?;
+    let inside = &rest[..close];
+    let (sign, numeral) = match inside.strip_prefix('-') {
+        Some(n) => (-1, n),
+        None => (1, inside.strip_prefix('+').unwrap_or(inside)),
+    };
+    let value = match numeral {
+        "0" => 0,
+        "I" => 1,
+        "II" => 2,
+        "III" => 3,
+        "IV" => 4,
+        "V" => 5,
+        "VI" => 6,
+        "VII" => 7,
+        "VIII" => 8,
+        _ => return None,
+    };
+    let after = &rest[close + 1..];
+    if after.starts_with(|c: char| c.is_ascii_digit()) {
+        return None;
+    }
+    Some((sign * value, close + 2))
+}
+
+fn roman(state: i32) -> String {
+    const R: [&str; 9] = ["0", "I", "II", "III", "IV", "V", "VI", "VII", "VIII"];
+    let r = R.get(state.unsigned_abs() as usize).copied().unwrap_or("?");
+    if state < 0 {
+        format!("-{r}")
+    } else {
+        r.to_string()
+    }
+}
+
 fn label_prefix(text: &str) -> Option<usize> {
     let dash = text.find('-')?;
     looks_like_label(&text[..dash]).then_some(dash)

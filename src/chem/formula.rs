@@ -215,8 +215,14 @@ fn parse_body(
     };
     let mut notes = Vec::new();
     let (start, stereo) = p.isomer_prefix(&mut notes);
-    let (body_end, written_charge) = p.split_charge(start)?;
-    let (start, body_end, counter) = p.counter_ions(start, body_end, &mut notes)?;
+    let (start, body_end, written_charge, counter) = match p.salt(start, &mut notes)? {
+        Some((open, end, written, counter)) => (open, end, written, counter),
+        None => {
+            let (body_end, written_charge) = p.split_charge(start)?;
+            let (start, body_end, counter) = p.counter_ions(start, body_end, &mut notes)?;
+            (start, body_end, written_charge, counter)
+        }
+    };
     let charge = match (written_charge, counter) {
         (Some(w), Some(c)) if w != c => {
             return Err(p
@@ -343,6 +349,25 @@ fn solvate(complex: &mut Complex, s: &str, lookup: &dyn LigandLookup) {
 
 /// Counter-cations written before a bracketed complex ion (`K3[Fe(CN)6]`), with their charges.
 const CATIONS: &[(&str, i32)] = &[
+    ("K(18-crown-6)", 1),
+    ("K(18-c-6)", 1),
+    ("K(crypt-222)", 1),
+    ("K(2.2.2-crypt)", 1),
+    ("Na(15-crown-5)", 1),
+    ("Na(18-crown-6)", 1),
+    ("Li(12-crown-4)", 1),
+    ("Li(THF)4", 1),
+    ("Li(THF)3", 1),
+    ("Li(THF)2", 1),
+    ("Li(THF)x", 1),
+    ("Na(THF)x", 1),
+    ("Na(THF)n", 1),
+    ("K(THF)x", 1),
+    ("Li(TMEDA)", 1),
+    ("Li(tmeda)", 1),
+    ("HNEt3", 1),
+    ("NHEt3", 1),
+    ("HNiPr2Et", 1),
     ("NBu4", 1),
     ("NEt4", 1),
     ("NMe4", 1),
@@ -360,10 +385,23 @@ const CATIONS: &[(&str, i32)] = &[
     ("Ca", 2),
     ("Sr", 2),
     ("Ba", 2),
+    ("Tl", 1),
 ];
 
 /// Counter-anions written after a bracketed complex ion (`[Co(NH3)6]Cl3`, `[Cp2Fe]PF6`).
 const ANIONS: &[(&str, i32)] = &[
+    ("B(C6F5)4", -1),
+    ("MeB(C6F5)3", -1),
+    ("Al(OC(CF3)3)4", -1),
+    ("NTf2", -1),
+    ("TfO", -1),
+    ("OTs", -1),
+    ("TsO", -1),
+    ("AcO", -1),
+    ("TFA", -1),
+    ("CF3CO2", -1),
+    ("HSO4", -1),
+    ("I3", -1),
     ("BArF24", -1),
     ("BArF4", -1),
     ("BArF", -1),
@@ -737,6 +775,145 @@ impl<'a> Parser<'a> {
         };
         let charge = if sign == b'+' { magnitude } else { -magnitude };
         Ok((before.len(), Some(charge)))
+    }
+
+    /// A salt written as ions side by side, each bracketed or a known counter-ion, charges
+    /// written on any of them: "[Cp2Co][PF6]", "[Cp2Co]+[PF6]-", "[NBu4][AuCl4]",
+    /// "[Rh(nbd)2][BArF4]". Gives the complex ion's span, its written charge and the charge
+    /// the counter-ions give it; None when the text is not such a row of ions.
+    #[allow(clippy::type_complexity)]
+    fn salt(
+        &self,
+        start: usize,
+        notes: &mut Vec<String>,
+    ) -> Result<Option<(usize, usize, Option<i32>, Option<i32>)>, ParseError> {
+        let t = self.text.trim_end();
+        let b = t.as_bytes();
+        // (span start, span end, inner text, written charge)
+        let mut units: Vec<(usize, usize, &str, Option<i32>)> = Vec::new();
+        let mut pos = start;
+        while pos < t.len() {
+            if b[pos] == b' ' {
+                pos += 1;
+                continue;
+            }
+            if b[pos] == b'[' {
+                let Ok(close) = self.matching(pos, t.len()) else {
+                    return Ok(None);
+                };
+                // a charge right after the bracket: "+", "2-", "^3+"
+                let mut q = close + 1;
+                if q < t.len() && b[q] == b'^' {
+                    q += 1;
+                }
+                let digits = b[q..].iter().take_while(|c| c.is_ascii_digit()).count();
+                let charge = match b.get(q + digits) {
+                    Some(&(s @ b'+' | s @ b'-')) => {
+                        let n: i32 = if digits == 0 {
+                            1
+                        } else {
+                            t[q..q + digits].parse().unwrap_or(99)
+                        };
+                        q += digits + 1;
+                        Some(if s == b'+' { n } else { -n })
+                    }
+                    // a count on a bracketed counter-ion ("[PF6]2"); on anything else a
+                    // multiplier of a dimer ("[CpFe(CO)2]2"), not a salt
+                    _ if digits > 0 => {
+                        let inner = &t[pos + 1..close];
+                        match CATIONS.iter().chain(ANIONS).find(|(n, _)| *n == inner) {
+                            Some((_, q1)) => {
+                                let n: i32 = t[q..q + digits].parse().unwrap_or(1);
+                                q += digits;
+                                Some(q1 * n)
+                            }
+                            None => return Ok(None),
+                        }
+                    }
+                    _ => {
+                        q = close + 1;
+                        None
+                    }
+                };
+                units.push((pos, close + 1, &t[pos + 1..close], charge));
+                pos = q;
+                continue;
+            }
+            // a known counter-ion without brackets, with a count: "K2", "(BF4)2", "Cl3"
+            let rest = &t[pos..];
+            let found = CATIONS
+                .iter()
+                .chain(ANIONS)
+                .find(|(n, _)| rest.starts_with(n) || rest.strip_prefix('(').is_some_and(|r| r.starts_with(n) && r[n.len()..].starts_with(')')));
+            let Some((name, q)) = found else {
+                return Ok(None);
+            };
+            let paren = rest.starts_with('(');
+            let len = name.len() + if paren { 2 } else { 0 };
+            // "K" must not be the start of a longer symbol or ligand ("Kr", "Cl" in "Cl2Pd")
+            if !paren && rest[len..].starts_with(|c: char| c.is_ascii_lowercase()) {
+                return Ok(None);
+            }
+            let digits = rest[len..].bytes().take_while(u8::is_ascii_digit).count();
+            let n: i32 = rest[len..len + digits].parse().unwrap_or(1);
+            units.push((pos, pos + len + digits, name, Some(q * n)));
+            pos += len + digits;
+        }
+        let bracketed = units
+            .iter()
+            .filter(|(s, _, _, _)| b[*s] == b'[')
+            .count();
+        if units.len() < 2 || bracketed == 0 {
+            return Ok(None);
+        }
+        let known = |inner: &str| {
+            CATIONS
+                .iter()
+                .chain(ANIONS)
+                .find(|(n, _)| *n == inner)
+                .map(|(_, q)| *q)
+        };
+        let mut complex_ions = Vec::new();
+        let mut counter = 0;
+        let mut names = Vec::new();
+        for (s, e, inner, written) in &units {
+            match known(inner) {
+                Some(q) if b[*s] == b'[' => {
+                    counter += written.unwrap_or(q);
+                    names.push(inner.to_string());
+                }
+                Some(_) => {
+                    counter += written.unwrap_or(0);
+                    names.push(t[*s..*e].to_string());
+                }
+                None if has_metal_token(inner) => complex_ions.push((*s, *e, *written)),
+                None => return Ok(None),
+            }
+        }
+        match complex_ions[..] {
+            [] => Ok(None),
+            [(s, e, written)] => {
+                notes.push(format!(
+                    "{} taken as counter-ion{} outside the coordination sphere",
+                    names.join(", "),
+                    if names.len() == 1 { "" } else { "s" }
+                ));
+                Ok(Some((s, e, written, Some(-counter))))
+            }
+            _ => Err(self
+                .error(
+                    start,
+                    t.len() - start,
+                    format!(
+                        "{} complex ions side by side: nonet counts one complex at a time",
+                        complex_ions.len()
+                    ),
+                )
+                .with_hint(
+                    "count each ion with its charge, e.g. '[Pt(NH3)4]2+' '[PtCl4]2-'; to join \
+                     two metal fragments by an M-M bond write [[CpFe(CO)2][Mn(CO)5]]",
+                )),
+        }
     }
 
     /// Counter-ions around a bracketed complex ion: cations before it (`K3[Fe(CN)6]`), anions

@@ -12,6 +12,7 @@ use std::fmt;
 use std::sync::Arc;
 
 use super::complex::{BoundLigand, Complex, MetalSite};
+use super::frac::Frac;
 use super::element::{self, is_symbol_shaped, Element};
 use super::ligand::{normalize_label, LigandDef};
 use super::molecule::Molecule;
@@ -338,13 +339,78 @@ fn parse_body(
 }
 
 /// What follows the dot: lattice solvent (left out, with a note), or solvent the metal binds
-/// when it would otherwise be implausibly low-coordinate ("PdCl2·2PPh3", "Ni(cod)Br·THF" stay
-/// apart when the metal is already well served).
+/// when without it the metal would be implausibly low-coordinate (at most 14 e, and binding
+/// keeps it within 18 e): "PdCl2·2PPh3" is PdCl2(PPh3)2, "ZrCl4·2THF" is ZrCl4(THF)2, while
+/// "K[PtCl3(C2H4)]·H2O" keeps its water in the lattice. Counts as "2THF", "2 THF", "(MeCN)2";
+/// "x" or "n" (an unknown count) is always lattice solvent. The note says how to flip it.
 fn solvate(complex: &mut Complex, s: &str, lookup: &dyn LigandLookup) {
-    complex.notes.push(format!(
-        "{s} after the dot is lattice solvent, left out of the count"
+    let lattice = |complex: &mut Complex, why: &str| {
+        complex.notes.push(format!(
+            "{s} after the dot is lattice solvent, left out of the count{why}"
+        ))
+    };
+    // "(MeCN)2", "2THF", "2 THF", "THF"
+    let t = s.trim();
+    let (token, n) = if let Some(inner) = t.strip_prefix('(') {
+        match inner.split_once(')') {
+            Some((tok, count)) => (tok.trim(), count.trim().parse::<u32>().ok().or(Some(1).filter(|_| count.trim().is_empty()))),
+            None => (t, None),
+        }
+    } else {
+        let digits = t.bytes().take_while(u8::is_ascii_digit).count();
+        let count = if digits == 0 {
+            Some(1).filter(|_| !t.starts_with(['x', 'n']) || lookup.exact(t).is_some())
+        } else {
+            t[..digits].parse::<u32>().ok()
+        };
+        let tok = if digits == 0 && count.is_none() { &t[1..] } else { &t[digits..] };
+        (tok.trim(), count)
+    };
+    let Some(n) = n.filter(|&n| (1..=6).contains(&n)) else {
+        return lattice(complex, "");
+    };
+    let Some(l) = lookup.exact(token) else {
+        return lattice(complex, "");
+    };
+    if complex.metal_count() != 1 || l.modes.first().is_none_or(|m| m.class.x != 0) {
+        return lattice(complex, "");
+    }
+    let before = super::count::count(complex);
+    let Some(m) = before.metals.first() else {
+        return lattice(complex, "");
+    };
+    let gain = Frac::int(2 * n as i64) * Frac::int(l.modes[0].class.l as i64);
+    if m.electron_count > Frac::int(14) || m.electron_count + gain > Frac::int(18) {
+        return lattice(
+            complex,
+            &format!(
+                " (the metal already has {} e); to bind it, write it in the formula",
+                m.electron_count
+            ),
+        );
+    }
+    let mut bound = complex.clone();
+    for _ in 0..n {
+        match super::edit::apply(
+            &bound,
+            &super::edit::Edit::Add {
+                place: super::edit::Place::Site(0),
+                ligand: l.clone(),
+                mode: 0,
+            },
+        ) {
+            Ok((c, _)) => bound = c,
+            Err(_) => return lattice(complex, ""),
+        }
+    }
+    bound.notes = std::mem::take(&mut complex.notes);
+    bound.stereo = complex.stereo.take();
+    bound.notes.push(format!(
+        "{s} after the dot is bound to the metal: without it the metal would have only {} e; \
+         to count it as lattice solvent, leave it out of the formula",
+        m.electron_count
     ));
-    let _ = lookup;
+    *complex = bound;
 }
 
 /// Counter-cations written before a bracketed complex ion (`K3[Fe(CN)6]`), with their charges.

@@ -425,10 +425,12 @@ pub fn count(complex: &Complex) -> Report {
                 .iter()
                 .chain(&complex.shared)
                 .any(|b| b.mode().hapticity().is_some_and(|h| h >= 5));
+            // three-coordinate d8 is a T-shaped fragment of the square plane: 16 e is its
+            // aim too, and it sits 2 e short of it (Rh(PPh3)2Cl; Hartwig 2010, ch. 1)
             let planar_d8 = s.element.block == Block::D
                 && !ring
                 && d.as_int() == Some(8)
-                && t.sites == Frac::int(4)
+                && (t.sites == Frac::int(4) || t.sites == Frac::int(3))
                 && (!polynuclear || hetero.get(i).copied().unwrap_or(false))
                 && spin::square_planar_d8(
                     s.element.symbol,
@@ -502,6 +504,19 @@ pub fn count(complex: &Complex) -> Report {
         .collect();
 
     let mut metals = metals;
+    // an odd count in a classical coordination complex is a paramagnetic ion, not a reactive
+    // radical ([Co(NH3)6]2+, 19 e, is a stable salt; common practice)
+    if is_werner(complex) {
+        for m in &mut metals {
+            for n in &mut m.notes {
+                if n == "odd electron count: a radical" {
+                    *n = "odd electron count: paramagnetic, as Werner complexes of σ-donor \
+                          ligands often are; not a reactive radical"
+                        .into();
+                }
+            }
+        }
+    }
     if view.bonds.is_none() {
         // a delocalized cluster: per-metal counts say little, the cluster count says it all
         for m in &mut metals {
@@ -677,7 +692,13 @@ fn metal_report(
     } else {
         (Saturation::Saturated, Frac::ZERO, 0)
     };
-    if target == 16 {
+    if target == 16 && t.sites == Frac::int(3) {
+        notes.push(
+            "three-coordinate d8: a T-shaped fragment of a square plane, 2 e short of 16; it \
+             takes a fourth ligand readily"
+                .into(),
+        );
+    } else if target == 16 {
         notes.push(
             "square-planar d8 is stable at 16 e; it can still add a ligand or an \
              oxidant to reach 18 e"

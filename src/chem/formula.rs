@@ -12,8 +12,8 @@ use std::fmt;
 use std::sync::Arc;
 
 use super::complex::{BoundLigand, Complex, MetalSite};
-use super::frac::Frac;
 use super::element::{self, is_symbol_shaped, Element};
+use super::frac::Frac;
 use super::ligand::{normalize_label, LigandDef};
 use super::molecule::Molecule;
 use super::species::SubstrateDef;
@@ -353,7 +353,14 @@ fn solvate(complex: &mut Complex, s: &str, lookup: &dyn LigandLookup) {
     let t = s.trim();
     let (token, n) = if let Some(inner) = t.strip_prefix('(') {
         match inner.split_once(')') {
-            Some((tok, count)) => (tok.trim(), count.trim().parse::<u32>().ok().or(Some(1).filter(|_| count.trim().is_empty()))),
+            Some((tok, count)) => (
+                tok.trim(),
+                count
+                    .trim()
+                    .parse::<u32>()
+                    .ok()
+                    .or(Some(1).filter(|_| count.trim().is_empty())),
+            ),
             None => (t, None),
         }
     } else {
@@ -363,7 +370,11 @@ fn solvate(complex: &mut Complex, s: &str, lookup: &dyn LigandLookup) {
         } else {
             t[..digits].parse::<u32>().ok()
         };
-        let tok = if digits == 0 && count.is_none() { &t[1..] } else { &t[digits..] };
+        let tok = if digits == 0 && count.is_none() {
+            &t[1..]
+        } else {
+            &t[digits..]
+        };
         (tok.trim(), count)
     };
     let Some(n) = n.filter(|&n| (1..=6).contains(&n)) else {
@@ -907,10 +918,12 @@ impl<'a> Parser<'a> {
             }
             // a known counter-ion without brackets, with a count: "K2", "(BF4)2", "Cl3"
             let rest = &t[pos..];
-            let found = CATIONS
-                .iter()
-                .chain(ANIONS)
-                .find(|(n, _)| rest.starts_with(n) || rest.strip_prefix('(').is_some_and(|r| r.starts_with(n) && r[n.len()..].starts_with(')')));
+            let found = CATIONS.iter().chain(ANIONS).find(|(n, _)| {
+                rest.starts_with(n)
+                    || rest
+                        .strip_prefix('(')
+                        .is_some_and(|r| r.starts_with(n) && r[n.len()..].starts_with(')'))
+            });
             let Some((name, q)) = found else {
                 return Ok(None);
             };
@@ -925,10 +938,7 @@ impl<'a> Parser<'a> {
             units.push((pos, pos + len + digits, name, Some(q * n)));
             pos += len + digits;
         }
-        let bracketed = units
-            .iter()
-            .filter(|(s, _, _, _)| b[*s] == b'[')
-            .count();
+        let bracketed = units.iter().filter(|(s, _, _, _)| b[*s] == b'[').count();
         if units.len() < 2 || bracketed == 0 {
             return Ok(None);
         }

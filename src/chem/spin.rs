@@ -180,7 +180,11 @@ pub fn guess(input: &SpinInput) -> SpinGuess {
         _ => (
             HIGH_SPIN_OCT[du].min(if du <= 5 { du as u8 } else { 10 - du as u8 }),
             (d % 2) as u8,
-            "no clear splitting pattern: low spin pairs all but one electron",
+            if d % 2 == 0 {
+                "no clear splitting pattern: low spin pairs every electron"
+            } else {
+                "no clear splitting pattern: low spin pairs all but one electron"
+            },
         ),
     };
     // An 18-electron centre with strong-field ligands (or a 4d/5d metal) fills every bonding
@@ -366,6 +370,18 @@ fn geometry(input: &SpinInput) -> &'static str {
     }
     match input.sites {
         2 => "linear",
+        3 if input.d == 8
+            && !input.f_block
+            && square_planar_d8(
+                input.symbol,
+                input.group,
+                input.first_row,
+                input.oxidation_state,
+                input.field,
+            ) =>
+        {
+            "T-shaped"
+        }
         3 => "trigonal planar",
         4 => match input.d {
             8 if square_planar_d8(

@@ -1,0 +1,166 @@
+//! Formulas as they are pasted from papers and PDFs: Unicode normalized at the edge, isomer
+//! and configuration prefixes kept, oxidation-state labels read as labels, salts with both ions
+//! written, solvent after a dot; and the readings fixed on the way (T-shaped d8, Werner odd
+//! counts, spin wording).
+
+mod common;
+
+use common::cat;
+use nonet::chem::{count, parse, Frac, Report};
+
+fn read(f: &str) -> (String, Report) {
+    let c = parse(f, cat()).unwrap_or_else(|e| panic!("{f}: {}", e.render()));
+    (c.formula(false), count(&c))
+}
+
+fn counts(f: &str) -> (i64, i64, i64) {
+    let (_, r) = read(f);
+    let m = &r.metals[0];
+    let int = |x: Frac| x.as_int().unwrap_or(i64::MIN);
+    (
+        int(m.electron_count),
+        int(m.oxidation_state),
+        int(m.d_electrons),
+    )
+}
+
+#[test]
+fn pdf_unicode_reads_like_ascii() {
+    // the same complexes written plainly and as a PDF renders them; counts: Crabtree, The
+    // Organometallic Chemistry of the Transition Metals, 6th ed., Wiley 2014, ch. 2
+    for (pasted, plain) in [
+        ("(η⁶-C₆H₆)Cr(CO)₃", "(eta6-C6H6)Cr(CO)3"),
+        ("[Co(NH₃)₆]³⁺", "[Co(NH3)6]3+"),
+        ("Fe(CO)₄²⁻", "[Fe(CO)4]2-"),
+        ("Ru₃(CO)₁₂", "Ru3(CO)12"),
+        ("[Cp₂Co]\u{2212}", "[Cp2Co]-"),
+        ("Ｆｅ(CO)5", "Fe(CO)5"),
+        ("Fe(CO)\u{200b}5", "Fe(CO)5"),
+        ("Cp\u{a0}Fe(CO)2Me", "CpFe(CO)2Me"),
+        ("[Pd(κ²-N,N-bpy)Cl₂]", "[Pd(bpy)Cl2]"),
+        ("(µ-Cl)2Rh2(CO)4", "(mu-Cl)2Rh2(CO)4"),
+    ] {
+        let (a, ra) = read(pasted);
+        let (b, rb) = read(plain);
+        assert_eq!(a, b, "{pasted} vs {plain}");
+        assert_eq!(
+            ra.metals[0].electron_count, rb.metals[0].electron_count,
+            "{pasted}"
+        );
+    }
+}
+
+#[test]
+fn the_caret_stays_under_what_was_typed() {
+    // a pasted formula with an unknown ligand after Unicode: the column is the user's
+    let e = parse("(η⁶-C₆H₆)Cr(CO)₂Xq", cat()).expect_err("unknown ligand");
+    assert_eq!(e.column, 16, "{}", e.render()); // 0-based: the X
+}
+
+#[test]
+fn isomer_and_configuration_prefixes_are_kept() {
+    // IUPAC Recommendations 2005 (Red Book) IR-9.3 names isomers with such prefixes; the
+    // count does not depend on them (common practice)
+    for (f, printed) in [
+        ("cis-PtCl2(NH3)2", "cis-[Pt(NH3)2Cl2]"),
+        ("trans-PtCl2(NH3)2", "trans-[Pt(NH3)2Cl2]"),
+        ("rac-Cp2ZrCl2", "rac-[Zr(η5-Cp)2Cl2]"),
+        ("(R,R)-Ru(BINAP)Cl2", "(R,R)-[Ru(BINAP)Cl2]"),
+        ("Δ-[Ru(bpy)3]2+", "Δ-[Ru(κ2-bpy)3]2+"),
+        ("fac-Ir(CO)3Cl3", "fac-[Ir(CO)3Cl3]"),
+    ] {
+        let (got, _) = read(f);
+        assert_eq!(got, printed);
+        // and the printed form reads back to itself
+        let (again, _) = read(&got);
+        assert_eq!(again, got);
+    }
+}
+
+#[test]
+fn oxidation_state_labels_are_labels() {
+    // Cu(I)Cl is copper(I) chloride, never copper with an iodide (common practice)
+    let (f, r) = read("Cu(I)Cl");
+    assert_eq!(f, "[CuCl]");
+    assert!(
+        r.notes.iter().any(|n| n.contains("agrees")),
+        "{:?}",
+        r.notes
+    );
+    assert_eq!(counts("[Ru(II)(bpy)₃]²⁺"), (18, 2, 6));
+    let (_, r) = read("Fe(II)Cl3");
+    assert!(
+        r.notes.iter().any(|n| n.contains("label, but")),
+        "a label that disagrees is said: {:?}",
+        r.notes
+    );
+    // a multiplier after "(I)" keeps it an iodide as written
+    assert_eq!(read("Pd(I)2").0, "[PdI2]");
+}
+
+#[test]
+fn salts_as_papers_write_them() {
+    // cobaltocenium 18 e Co(III) d6; ferrocenium 17 e; [Rh(nbd)2]+ 16 e Rh(I) d8 (Crabtree
+    // 2014, ch. 2 and 5); [Co(CO)4]- 18 e Co(-I) (Hartwig 2010, ch. 1)
+    assert_eq!(counts("[Cp₂Co][PF₆]"), (18, 3, 6));
+    assert_eq!(counts("[Cp2Co]+[PF6]−"), (18, 3, 6));
+    assert_eq!(counts("[Cp2Fe][PF6]"), (17, 3, 5));
+    assert_eq!(counts("[Rh(nbd)₂][BArF₄]"), (16, 1, 8));
+    assert_eq!(counts("[NBu4][AuCl4]"), (16, 3, 8));
+    assert_eq!(counts("K(18-crown-6)[Co(CO)4]"), (18, -1, 10));
+    assert_eq!(counts("[PPN][Co(CO)4]"), (18, -1, 10));
+    assert_eq!(counts("[Fe(H2O)6](BF4)2"), (18, 2, 6));
+    assert_eq!(counts("[Cu(MeCN)4][B(C6F5)4]"), (18, 1, 10));
+    // a charge written on the complex ion that the counter-ions contradict is refused
+    assert!(parse("[Cp2Co]2+[PF6]-", cat()).is_err());
+}
+
+#[test]
+fn solvent_after_the_dot() {
+    // PdCl2(PPh3)2 16 e; ZrCl4(THF)2 12 e Zr(IV); CrCl3(THF)3 15 e (common practice)
+    assert_eq!(counts("PdCl2·2PPh3"), (16, 2, 8));
+    assert_eq!(counts("ZrCl4·2THF"), (12, 4, 0));
+    assert_eq!(counts("CrCl3 • 3THF"), (15, 3, 3));
+    // the metal is already well served: the water stays in the lattice
+    let (f, r) = read("K[PtCl3(C2H4)]·H2O");
+    assert_eq!(f, "[Pt(η2-C2H4)Cl3]-");
+    assert!(
+        r.notes.iter().any(|n| n.contains("lattice")),
+        "{:?}",
+        r.notes
+    );
+    // an unknown count is lattice solvent
+    let (f, _) = read("CuCl·xH2O");
+    assert_eq!(f, "[CuCl]");
+}
+
+#[test]
+fn three_coordinate_d8_is_t_shaped_and_aims_at_16() {
+    // the 14-e RhCl(PPh3)2 of Wilkinson's cycle: T-shaped, 2 e short of 16 (Hartwig,
+    // Organotransition Metal Chemistry, 2010, ch. 15)
+    let (_, r) = read("Rh(PPh3)2Cl");
+    let m = &r.metals[0];
+    assert_eq!(m.target, 16);
+    assert_eq!(m.electrons_short, Frac::int(2));
+    assert_eq!(r.geometry, "T-shaped");
+}
+
+#[test]
+fn werner_odd_counts_are_not_radicals_and_diamagnetic_centres_pair_every_electron() {
+    // [Co(NH3)6]2+ (19 e) is a stable paramagnetic ion (common practice)
+    let (_, r) = read("[Co(NH3)6]2+");
+    assert!(
+        !r.metals[0].notes.iter().any(|n| n.ends_with("a radical")),
+        "{:?}",
+        r.metals[0].notes
+    );
+    // an organometallic 17-e species still is one
+    let (_, r) = read("[Cp2Fe]+");
+    assert!(r.metals[0].notes.iter().any(|n| n.contains("radical")));
+    let (_, r) = read("Rh(PPh3)2Cl");
+    assert!(
+        !r.spin_basis.0.contains("all but one"),
+        "{}",
+        r.spin_basis.0
+    );
+}

@@ -547,6 +547,7 @@ fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
     let mut cols = Vec::with_capacity(input.len());
     let mut in_super = false;
     let mut in_smiles = false;
+    let mut label_run = false;
     for (col, c) in input.chars().enumerate() {
         // SMILES in braces is copied as it is: its '=' and '#' are bonds
         if c == '{' || c == '}' || in_smiles {
@@ -565,12 +566,10 @@ fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
         }
         // superscript and subscript digits right after η, κ or μ are the prefix's number
         // ("η⁶-C₆H₆", "κ²-N,N", "μ₃-CO")
-        let label_digit = (SUPER.contains(c) || SUB.contains(c))
-            && text
-                .chars()
-                .rev()
-                .find(|x| !x.is_ascii_digit())
-                .is_some_and(|x| matches!(x, 'η' | 'κ' | 'μ'));
+        let label_digit = (SUPER.contains(c) || SUB.contains(c)) && label_run;
+        // the run of a label's digits: η, κ or μ, then digits
+        label_run = matches!(c, 'η' | 'κ' | 'μ' | 'µ')
+            || (label_run && (label_digit || c.is_ascii_digit()));
         if label_digit {
             let i = SUPER
                 .chars()
@@ -865,6 +864,10 @@ impl<'a> Parser<'a> {
         notes: &mut Vec<String>,
     ) -> Result<Option<(usize, usize, Option<i32>, Option<i32>)>, ParseError> {
         let t = self.text.trim_end();
+        // a salt has at least one bracketed ion
+        if !t[start.min(t.len())..].contains('[') {
+            return Ok(None);
+        }
         let b = t.as_bytes();
         // (span start, span end, inner text, written charge)
         let mut units: Vec<(usize, usize, &str, Option<i32>)> = Vec::new();

@@ -174,13 +174,16 @@ struct Counter<'a> {
 
 impl Counter<'_> {
     fn line(&self, line: &Line, number: Option<usize>, done: &mut Done) {
-        let place = number.map(|n| format!("line {n}: ")).unwrap_or_default();
+        let place = || number.map(|n| format!("line {n}: ")).unwrap_or_default();
         match line {
-            Line::Text(t) => self.one(t, &place, done),
+            Line::Text(t) => self.one(t, number, done),
             Line::NotUtf8(lossy) => {
                 let shown = excerpt(lossy.trim());
-                done.errors
-                    .push(format!("{place}not UTF-8 text: {}", diag::quote(&shown)));
+                done.errors.push(format!(
+                    "{}not UTF-8 text: {}",
+                    place(),
+                    diag::quote(&shown)
+                ));
                 if self.json {
                     let _ = json::write_message(&mut done.out, &shown, "not UTF-8 text");
                 }
@@ -192,7 +195,7 @@ impl Counter<'_> {
                      it starts: {}",
                     diag::quote(start)
                 );
-                done.errors.push(format!("{place}{why}"));
+                done.errors.push(format!("{}{why}", place()));
                 if self.json {
                     let _ = json::write_message(&mut done.out, start, &why);
                 }
@@ -201,13 +204,14 @@ impl Counter<'_> {
         }
     }
 
-    fn one(&self, input: &str, place: &str, done: &mut Done) {
+    fn one(&self, input: &str, number: Option<usize>, done: &mut Done) {
+        let place = || number.map(|n| format!("line {n}: ")).unwrap_or_default();
         match chem::parse(input, self.cat) {
             Ok(complex) => {
                 let report = chem::count(&complex);
                 if let Some(why) = report.impossible() {
                     done.errors
-                        .push(format!("{place}{}: {why}", diag::quote(input)));
+                        .push(format!("{}{}: {why}", place(), diag::quote(input)));
                     if self.json {
                         let _ = json::write_message(&mut done.out, input, &why);
                     }
@@ -227,7 +231,7 @@ impl Counter<'_> {
             }
             Err(e) => {
                 done.errors
-                    .push(format!("{place}{}", diag::parse_error(&e)));
+                    .push(format!("{}{}", place(), diag::parse_error(&e)));
                 if self.json {
                     let _ = json::write_error(&mut done.out, input, &e);
                 }

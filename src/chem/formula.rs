@@ -338,6 +338,166 @@ fn parse_body(
     Ok(complex)
 }
 
+/// The ions of a formula: one complex, or both complex ions of a salt where each holds a
+/// metal ("[Pt(NH3)4][PtCl4]", Magnus's green salt; "[Cp2Co][Co(CO)4]"), each with its charge.
+/// Charges come from what is written; when neither ion's charge is written, the split that
+/// gives both metals the same oxidation state is taken and the notes say so.
+pub fn parse_ions(input: &str, lookup: &dyn LigandLookup) -> Result<Vec<Complex>, ParseError> {
+    let e = match parse(input, lookup) {
+        Ok(c) => return Ok(vec![c]),
+        Err(e) if e.message.starts_with("2 complex ions") => e,
+        Err(e) => return Err(e),
+    };
+    let (text, _) = normalize(input);
+    let t = text.trim();
+    // the top-level units: bracketed ions with an optional charge, or known counter-ions
+    let mut ions: Vec<(&str, Option<i32>)> = Vec::new();
+    let mut counter = 0;
+    let b = t.as_bytes();
+    let mut pos = 0;
+    while pos < t.len() {
+        match b[pos] {
+            b' ' => pos += 1,
+            b'[' => {
+                let mut depth = 0;
+                let mut close = None;
+                for (i, &c) in b.iter().enumerate().skip(pos) {
+                    match c {
+                        b'[' => depth += 1,
+                        b']' => {
+                            depth -= 1;
+                            if depth == 0 {
+                                close = Some(i);
+                                break;
+                            }
+                        }
+                        _ => {}
+                    }
+                }
+                let Some(close) = close else { return Err(e) };
+                let inner = &t[pos + 1..close];
+                let mut q = close + 1;
+                if b.get(q) == Some(&b'^') {
+                    q += 1;
+                }
+                let digits = b[q.min(b.len())..].iter().take_while(|c| c.is_ascii_digit()).count();
+                let charge = match b.get(q + digits) {
+                    Some(&sign @ (b'+' | b'-')) => {
+                        let n: i32 = if digits == 0 { 1 } else { t[q..q + digits].parse().unwrap_or(1) };
+                        q += digits + 1;
+                        Some(if sign == b'+' { n } else { -n })
+                    }
+                    _ => {
+                        q = close + 1;
+                        None
+                    }
+                };
+                match CATIONS.iter().chain(ANIONS).find(|(n, _)| *n == inner) {
+                    Some((_, k)) => counter += charge.unwrap_or(*k),
+                    None => ions.push((inner, charge)),
+                }
+                pos = q;
+            }
+            _ => {
+                let rest = &t[pos..];
+                let Some((name, k)) = CATIONS.iter().chain(ANIONS).find(|(n, _)| rest.starts_with(n)) else {
+                    return Err(e);
+                };
+                let digits = rest[name.len()..].bytes().take_while(u8::is_ascii_digit).count();
+                let n: i32 = rest[name.len()..name.len() + digits].parse().unwrap_or(1);
+                counter += k * n;
+                pos += name.len() + digits;
+            }
+        }
+    }
+    let [(a, qa), (b_ion, qb)] = ions[..] else {
+        return Err(e);
+    };
+    let text_of = |inner: &str, q: i32| {
+        let sign = if q < 0 { '-' } else { '+' };
+        match q {
+            0 => format!("[{inner}]"),
+            1 | -1 => format!("[{inner}]{sign}"),
+            _ => format!("[{inner}]{}{sign}", q.abs()),
+        }
+    };
+    let read_pair = |q1: i32, q2: i32| -> Option<(Complex, Complex)> {
+        let c1 = parse(&text_of(a, q1), lookup).ok()?;
+        let c2 = parse(&text_of(b_ion, q2), lookup).ok()?;
+        Some((c1, c2))
+    };
+    let (mut c1, mut c2, guessed) = match (qa, qb) {
+        (Some(x), Some(y)) if x + y + counter == 0 => match read_pair(x, y) {
+            Some((c1, c2)) => (c1, c2, false),
+            None => return Err(e),
+        },
+        (Some(_), Some(_)) => {
+            return Err(ParseError {
+                message: "the ions' written charges do not add up to a neutral salt".into(),
+                hint: Some("check the charges on each bracket".into()),
+                ..e
+            })
+        }
+        (Some(x), None) => match read_pair(x, -x - counter) {
+            Some((c1, c2)) => (c1, c2, false),
+            None => return Err(e),
+        },
+        (None, Some(y)) => match read_pair(-y - counter, y) {
+            Some((c1, c2)) => (c1, c2, false),
+            None => return Err(e),
+        },
+        (None, None) => {
+            // the split a chemist would assume: each metal nearest its electron target
+            // (cobaltocenium tetracarbonylcobaltate, 18 e each), then the same oxidation
+            // state for both (Magnus's green salt, Pt(II) twice)
+            let same = [1, 2, 3, 4, -1, -2, -3, -4]
+                .into_iter()
+                .filter_map(|q| {
+                    let (c1, c2) = read_pair(q, -q - counter)?;
+                    let (r1, r2) = (super::count::count(&c1), super::count::count(&c2));
+                    if r1.impossible().is_some() || r2.impossible().is_some() {
+                        return None;
+                    }
+                    let (m1, m2) = (r1.metals.first()?, r2.metals.first()?);
+                    let off = |m: &super::count::MetalReport| {
+                        (m.electron_count - Frac::int(m.target as i64)).to_f64().abs()
+                    };
+                    let score = off(m1) + off(m2)
+                        + if m1.oxidation_state == m2.oxidation_state { 0.0 } else { 0.5 };
+                    Some((score, c1, c2))
+                })
+                .min_by(|a, b| a.0.partial_cmp(&b.0).unwrap_or(std::cmp::Ordering::Equal))
+                .map(|(_, c1, c2)| (c1, c2));
+            match same {
+                Some((c1, c2)) => (c1, c2, true),
+                None => {
+                    return Err(ParseError {
+                        hint: Some("write each ion's charge, e.g. [Pt(NH3)4]2+[PtCl4]2-".into()),
+                        ..e
+                    })
+                }
+            }
+        }
+    };
+    for c in [&mut c1, &mut c2] {
+        let role = match c.charge {
+            q if q > 0 => "cation",
+            q if q < 0 => "anion",
+            _ => "neutral part",
+        };
+        c.notes.push(format!("the {role} of a salt of two complex ions, counted on its own"));
+        if guessed {
+            c.notes.push(
+                "charges not written: taken so that each metal is nearest its electron target \
+                 (then the same oxidation state for both); write them ([A]+[B]-) to choose \
+                 another split"
+                    .into(),
+            );
+        }
+    }
+    Ok(vec![c1, c2])
+}
+
 /// What follows the dot: lattice solvent (left out, with a note), or solvent the metal binds
 /// when without it the metal would be implausibly low-coordinate (at most 14 e, and binding
 /// keeps it within 18 e): "PdCl2·2PPh3" is PdCl2(PPh3)2, "ZrCl4·2THF" is ZrCl4(THF)2, while
@@ -984,7 +1144,8 @@ impl<'a> Parser<'a> {
                     start,
                     t.len() - start,
                     format!(
-                        "{} complex ions side by side: nonet counts one complex at a time",
+                        "{} complex ions side by side: `nonet count` reports each; steps and \
+                         the planner take one complex at a time",
                         complex_ions.len()
                     ),
                 )

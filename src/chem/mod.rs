@@ -29,7 +29,7 @@ pub mod structure;
 
 pub use complex::{BoundLigand, Complex, MetalSite};
 pub use count::{count, Report};
-pub use formula::{parse, LigandLookup, ParseError};
+pub use formula::{parse, parse_ions, LigandLookup, ParseError};
 pub use frac::Frac;
 pub use ligand::{BindingMode, CbcClass, FieldClass, LigandDef, Sourced};
 

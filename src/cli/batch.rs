@@ -206,10 +206,10 @@ impl Counter<'_> {
 
     fn one(&self, input: &str, number: Option<usize>, done: &mut Done) {
         let place = || number.map(|n| format!("line {n}: ")).unwrap_or_default();
-        match chem::parse(input, self.cat) {
-            Ok(complex) => {
-                let report = chem::count(&complex);
-                if let Some(why) = report.impossible() {
+        match chem::parse_ions(input, self.cat) {
+            Ok(ions) => {
+                let reports: Vec<_> = ions.iter().map(chem::count).collect();
+                if let Some(why) = reports.iter().find_map(|r| r.impossible()) {
                     done.errors
                         .push(format!("{}{}: {why}", place(), diag::quote(input)));
                     if self.json {
@@ -218,15 +218,32 @@ impl Counter<'_> {
                     done.rejected = true;
                     return;
                 }
-                if self.json {
-                    match self.fields {
-                        None => json::append_report(&mut done.out, input, &report),
-                        Some(f) => json::append_report_fields(&mut done.out, input, &report, &f.0),
+                let several = reports.len() > 1;
+                for report in &reports {
+                    if self.json {
+                        let at = done.out.len();
+                        match self.fields {
+                            None => json::append_report(&mut done.out, input, report),
+                            Some(f) => {
+                                json::append_report_fields(&mut done.out, input, report, &f.0)
+                            }
+                        }
+                        if several {
+                            // a salt of two complex ions: one line per ion, named
+                            let role = match report.charge {
+                                q if q > 0 => "cation",
+                                q if q < 0 => "anion",
+                                _ => "neutral",
+                            };
+                            let field = format!("\"ion\":\"{role}\",");
+                            let open = at + 1;
+                            done.out.splice(open..open, field.bytes());
+                        }
+                    } else {
+                        let mut t = Vec::with_capacity(1024);
+                        let _ = text::write_report(&mut t, input, report, self.ascii);
+                        let _ = diag::write_clean(&mut done.out, &t);
                     }
-                } else {
-                    let mut t = Vec::with_capacity(1024);
-                    let _ = text::write_report(&mut t, input, &report, self.ascii);
-                    let _ = diag::write_clean(&mut done.out, &t);
                 }
             }
             Err(e) => {

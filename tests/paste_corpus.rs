@@ -21,7 +21,7 @@
 mod common;
 
 use common::cat;
-use nonet::chem::{count, parse, Frac};
+use nonet::chem::{count, parse_ions, Frac};
 use std::collections::BTreeMap;
 use std::panic::{catch_unwind, AssertUnwindSafe};
 
@@ -30,7 +30,7 @@ use std::panic::{catch_unwind, AssertUnwindSafe};
 /// It rises as the reader learns to accept pasted text: when a change makes more lines pass,
 /// raise it to the new number (the test prints it). It must never be lowered: a lower count
 /// means text that used to be read correctly no longer is.
-const MIN_PASSING: usize = 374;
+const MIN_PASSING: usize = 476;
 
 /// The fewest data lines the corpus may have.
 const MIN_LINES: usize = 250;
@@ -152,13 +152,24 @@ fn corpus() -> Vec<Line> {
     out
 }
 
-fn read(formula: &str) -> Got {
-    let attempt = catch_unwind(AssertUnwindSafe(|| match parse(formula, cat()) {
+/// The reading `nonet count` gives: of a salt of two complex ions, the cation's (the first
+/// ion with a positive charge, as the corpus records it). A line whose note holds
+/// `label-disagrees` must also carry the note that its oxidation-state label disagrees.
+fn read(formula: &str, note: &str) -> Got {
+    let attempt = catch_unwind(AssertUnwindSafe(|| match parse_ions(formula, cat()) {
         Err(e) => Got::Refused(e.to_string()),
-        Ok(complex) => {
-            let report = count(&complex);
+        Ok(ions) => {
+            let Some(complex) = ions.iter().find(|c| c.charge > 0).or(ions.first()) else {
+                return Got::Refused(String::new());
+            };
+            let report = count(complex);
             if let Some(why) = report.impossible() {
                 return Got::Refused(why);
+            }
+            if note.split_whitespace().any(|t| t == "label-disagrees")
+                && !report.notes.iter().any(|n| n.contains("label, but"))
+            {
+                return Got::Refused(String::new());
             }
             match report.metals.first() {
                 Some(m) => Got::Read {
@@ -236,7 +247,7 @@ fn paste_corpus() {
     let mut two_ions = (0usize, 0usize);
 
     for line in &lines {
-        let got = read(&line.formula);
+        let got = read(&line.formula, &line.note);
         let ok = passes(line, &got);
         if line.note.split_whitespace().any(|t| t == "two-ions") {
             two_ions.0 += 1;

@@ -380,10 +380,17 @@ pub fn parse_ions(input: &str, lookup: &dyn LigandLookup) -> Result<Vec<Complex>
                 if b.get(q) == Some(&b'^') {
                     q += 1;
                 }
-                let digits = b[q.min(b.len())..].iter().take_while(|c| c.is_ascii_digit()).count();
+                let digits = b[q.min(b.len())..]
+                    .iter()
+                    .take_while(|c| c.is_ascii_digit())
+                    .count();
                 let charge = match b.get(q + digits) {
                     Some(&sign @ (b'+' | b'-')) => {
-                        let n: i32 = if digits == 0 { 1 } else { t[q..q + digits].parse().unwrap_or(1) };
+                        let n: i32 = if digits == 0 {
+                            1
+                        } else {
+                            t[q..q + digits].parse().unwrap_or(1)
+                        };
                         q += digits + 1;
                         Some(if sign == b'+' { n } else { -n })
                     }
@@ -400,10 +407,17 @@ pub fn parse_ions(input: &str, lookup: &dyn LigandLookup) -> Result<Vec<Complex>
             }
             _ => {
                 let rest = &t[pos..];
-                let Some((name, k)) = CATIONS.iter().chain(ANIONS).find(|(n, _)| rest.starts_with(n)) else {
+                let Some((name, k)) = CATIONS
+                    .iter()
+                    .chain(ANIONS)
+                    .find(|(n, _)| rest.starts_with(n))
+                else {
                     return Err(e);
                 };
-                let digits = rest[name.len()..].bytes().take_while(u8::is_ascii_digit).count();
+                let digits = rest[name.len()..]
+                    .bytes()
+                    .take_while(u8::is_ascii_digit)
+                    .count();
                 let n: i32 = rest[name.len()..name.len() + digits].parse().unwrap_or(1);
                 counter += k * n;
                 pos += name.len() + digits;
@@ -460,10 +474,17 @@ pub fn parse_ions(input: &str, lookup: &dyn LigandLookup) -> Result<Vec<Complex>
                     }
                     let (m1, m2) = (r1.metals.first()?, r2.metals.first()?);
                     let off = |m: &super::count::MetalReport| {
-                        (m.electron_count - Frac::int(m.target as i64)).to_f64().abs()
+                        (m.electron_count - Frac::int(m.target as i64))
+                            .to_f64()
+                            .abs()
                     };
-                    let score = off(m1) + off(m2)
-                        + if m1.oxidation_state == m2.oxidation_state { 0.0 } else { 0.5 };
+                    let score = off(m1)
+                        + off(m2)
+                        + if m1.oxidation_state == m2.oxidation_state {
+                            0.0
+                        } else {
+                            0.5
+                        };
                     Some((score, c1, c2))
                 })
                 .min_by(|a, b| a.0.partial_cmp(&b.0).unwrap_or(std::cmp::Ordering::Equal))
@@ -485,7 +506,9 @@ pub fn parse_ions(input: &str, lookup: &dyn LigandLookup) -> Result<Vec<Complex>
             q if q < 0 => "anion",
             _ => "neutral part",
         };
-        c.notes.push(format!("the {role} of a salt of two complex ions, counted on its own"));
+        c.notes.push(format!(
+            "the {role} of a salt of two complex ions, counted on its own"
+        ));
         if guessed {
             c.notes.push(
                 "charges not written: taken so that each metal is nearest its electron target \

@@ -164,3 +164,19 @@ fn werner_odd_counts_are_not_radicals_and_diamagnetic_centres_pair_every_electro
         r.spin_basis.0
     );
 }
+
+#[test]
+fn brackets_labels_bonds_and_cations_as_papers_print_them() {
+    // square brackets as parentheses around a ligand; Pd(PtBu3)2 14 e Pd(0) (Hartwig 2010,
+    // ch. 2)
+    assert_eq!(counts("Pd[P(t-Bu)₃]₂"), (14, 0, 10));
+    // a configuration label before a ligand; a bond dash after the metal
+    assert_eq!(counts("Ru(OAc)2[(R)-BINAP]"), (18, 2, 6));
+    assert_eq!(counts("Cp∗₂Sc–CH₃"), (14, 3, 0));
+    // a Roman numeral written flat against the symbol; FeI2 keeps its iodides
+    assert_eq!(counts("[FeIII(CN)6]3−"), (17, 3, 5));
+    assert_eq!(counts("FeI2").1, 2);
+    // organic cations written the other way round (common practice)
+    assert_eq!(counts("Et4N[Mn(CO)5]"), (18, -1, 8));
+    assert_eq!(counts("(Et₄N)₂[NiCl₄]"), (16, 2, 8));
+}

@@ -628,8 +628,16 @@ const CATIONS: &[(&str, i32)] = &[
     ("HNEt3", 1),
     ("NHEt3", 1),
     ("HNiPr2Et", 1),
+    ("n-Bu4N", 1),
+    ("nBu4N", 1),
     ("NBu4", 1),
+    ("Bu4N", 1),
     ("NEt4", 1),
+    ("Et4N", 1),
+    ("Me4N", 1),
+    ("Ph4P", 1),
+    ("Ph4As", 1),
+    ("Et3NH", 1),
     ("NMe4", 1),
     ("NPr4", 1),
     ("PPh4", 1),
@@ -777,6 +785,7 @@ fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
             '⁺' | '₊' => '+',
             '′' | '’' | '‘' => '\'',
             '•' | '∙' | '⋅' | '・' | '‧' => '·',
+            '∗' | '⁎' | '﹡' | '＊' => '*',
             '\t' | '\u{a0}' | '\u{2000}'..='\u{200a}' | '\u{202f}' | '\u{205f}' | '\u{3000}' => ' ',
             c => {
                 if let Some(i) = SUPER.chars().position(|s| s == c) {
@@ -1199,6 +1208,11 @@ impl<'a> Parser<'a> {
         let before = &t[start..open];
         let after = &t[close + 1..];
         if has_metal_token(before) && ion_list(before, CATIONS).is_none() {
+            // square brackets used as parentheses around a ligand ("Pd[P(tBu)3]2",
+            // "Ru(OAc)2[(R)-BINAP]"): no metal inside, so they group a ligand
+            if !has_metal_token(&t[open + 1..close]) {
+                return Ok((start, end, None));
+            }
             return Err(self
                 .error(
                     start,
@@ -1298,6 +1312,24 @@ impl<'a> Parser<'a> {
         while *pos < end {
             let rest = &self.text[*pos..end];
             let c = rest.as_bytes()[0];
+            // a configuration label before a ligand ("(R)-BINAP", "(S,S)-TsDPEN") names its
+            // enantiomer; the count does not depend on it
+            if c == b'(' {
+                if let Some(n) = configuration_label(rest) {
+                    if self.lookup.longest_prefix(&rest[n..], &|_| true).is_some() {
+                        *pos += n;
+                        continue;
+                    }
+                }
+            }
+            // a bond drawn after a metal ("Cp*2Sc–CH3", "(CO)5Mn–Me"): nothing to read
+            if c == b'-'
+                && group.metals.last().is_some()
+                && rest[1..].starts_with(|x: char| x.is_ascii_uppercase() || x == '(')
+            {
+                *pos += 1;
+                continue;
+            }
             match c {
                 b' ' => *pos += 1,
                 b'[' | b'(' => {
@@ -1729,6 +1761,26 @@ enum Item {
 /// not when a multiplier follows ("Pd(I)2" is palladium diiodide as written). Gives the state
 /// and the label's length in bytes.
 fn roman_label(text: &str) -> Option<(i32, usize)> {
+    // written flat against the symbol, two numerals or more ("FeIII(CN)6"; "FeI2" stays an
+    // iodide)
+    let flat = text
+        .bytes()
+        .take_while(|b| matches!(b, b'I' | b'V' | b'X'))
+        .count();
+    if flat >= 2
+        && !text[flat..].starts_with(|c: char| c.is_ascii_lowercase() || c.is_ascii_digit())
+    {
+        let value = match &text[..flat] {
+            "II" => 2,
+            "III" => 3,
+            "IV" => 4,
+            "VI" => 6,
+            "VII" => 7,
+            "VIII" => 8,
+            _ => return None,
+        };
+        return Some((value, flat));
+    }
     let rest = text.strip_prefix('(')?;
     let close = rest.find(')')?;
     let inside = &rest[..close];

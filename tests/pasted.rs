@@ -180,3 +180,80 @@ fn brackets_labels_bonds_and_cations_as_papers_print_them() {
     assert_eq!(counts("Et4N[Mn(CO)5]"), (18, -1, 8));
     assert_eq!(counts("(Et₄N)₂[NiCl₄]"), (16, 2, 8));
 }
+
+/// A printed formula the way a PDF renders it: multipliers as subscripts, the charge as
+/// superscripts with U+207A/U+207B, label digits as superscripts (η⁵), hyphens as U+2010.
+fn as_pdf(printed: &str) -> String {
+    const SUB: [char; 10] = ['₀', '₁', '₂', '₃', '₄', '₅', '₆', '₇', '₈', '₉'];
+    const SUP: [char; 10] = ['⁰', '¹', '²', '³', '⁴', '⁵', '⁶', '⁷', '⁸', '⁹'];
+    // the charge after the last ']'
+    let (body, charge) = match printed.rfind(']') {
+        Some(i) if i + 1 < printed.len() => printed.split_at(i + 1),
+        _ => (printed, ""),
+    };
+    let mut out = String::new();
+    let mut braces = 0;
+    let mut in_label = false;
+    let mut prev = ' ';
+    for c in body.chars() {
+        match c {
+            '{' => braces += 1,
+            '}' => braces -= 1,
+            _ => {}
+        }
+        let digit = c.to_digit(10);
+        let mapped = if braces > 0 {
+            c
+        } else if let Some(d) = digit {
+            if in_label {
+                SUP[d as usize]
+            } else if prev.is_alphabetic() || prev == ')' || prev == ']' || prev.is_ascii_digit() {
+                SUB[d as usize]
+            } else {
+                c
+            }
+        } else if c == '-' {
+            '\u{2010}'
+        } else {
+            c
+        };
+        in_label = matches!(c, 'η' | 'κ' | 'μ') || (in_label && digit.is_some());
+        if digit.is_none() || !in_label {
+            prev = c;
+        }
+        out.push(mapped);
+    }
+    for c in charge.chars() {
+        out.push(match c {
+            '+' => '⁺',
+            '-' => '⁻',
+            d => d.to_digit(10).map_or(d, |d| SUP[d as usize]),
+        });
+    }
+    out
+}
+
+proptest::proptest! {
+    #![proptest_config(proptest::prelude::ProptestConfig {
+        cases: 300,
+        failure_persistence: None,
+        ..proptest::prelude::ProptestConfig::default()
+    })]
+
+    #[test]
+    fn printed_formulas_read_back_from_pdf_unicode(c in common::arb_complex()) {
+        use proptest::prelude::*;
+        let first = parse(&c.formula(false), cat()).map_err(|e| TestCaseError::fail(e.render()))?;
+        let printed = first.formula(false);
+        let pdf = as_pdf(&printed);
+        let back = parse(&pdf, cat())
+            .map_err(|e| TestCaseError::fail(format!("{pdf}: {}", e.render())))?;
+        prop_assert_eq!(&back, &first, "{} as {}", printed, pdf);
+    }
+}
+
+#[test]
+fn the_pdf_rendering_is_what_a_pdf_gives() {
+    assert_eq!(as_pdf("[Fe(η5-Cp)2]+"), "[Fe(η⁵\u{2010}Cp)₂]⁺");
+    assert_eq!(as_pdf("[Co(NH3)6]3+"), "[Co(NH₃)₆]³⁺");
+}

@@ -257,3 +257,16 @@ fn the_pdf_rendering_is_what_a_pdf_gives() {
     assert_eq!(as_pdf("[Fe(η5-Cp)2]+"), "[Fe(η⁵\u{2010}Cp)₂]⁺");
     assert_eq!(as_pdf("[Co(NH3)6]3+"), "[Co(NH₃)₆]³⁺");
 }
+
+#[test]
+fn acids_and_charged_counter_ions() {
+    // H[AuCl4] is tetrachloroauric acid, Au(III) d8 16 e; H2[PtCl6] Pt(IV) d6 (common
+    // practice); HCo(CO)4 stays a hydride, Co(I) 18 e (Hartwig 2010, ch. 3)
+    assert_eq!(counts("H[AuCl₄]"), (16, 3, 8));
+    assert_eq!(counts("H₂[PtCl₆]"), (18, 4, 6));
+    assert_eq!(counts("HCo(CO)4"), (18, 1, 8));
+    // a charge printed on both ions of a salt
+    assert_eq!(counts("[CpRu(NCCH₃)₃]⁺PF₆⁻"), (18, 2, 6));
+    // a narrow space between a bracket and its count
+    assert_eq!(counts("[Ir(cod)Cl]\u{202f}₂"), (16, 1, 8));
+}

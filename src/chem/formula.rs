@@ -654,6 +654,9 @@ const CATIONS: &[(&str, i32)] = &[
     ("Sr", 2),
     ("Ba", 2),
     ("Tl", 1),
+    // the proton of an acid before a bracketed anion ("H[AuCl4]", "H2[PtCl6]"); never read
+    // before an unbracketed metal, where H is a hydride ("HCo(CO)4")
+    ("H", 1),
 ];
 
 /// Counter-anions written after a bracketed complex ion (`[Co(NH3)6]Cl3`, `[Cp2Fe]PF6`).
@@ -749,9 +752,19 @@ fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
         }
         // bonds drawn in a formula ("(CO)5W=C(OMe)Ph", "PhC≡CPh") add nothing to read;
         // zero-width spaces and joiners are invisible in the paper
+        // thin and narrow spaces are typesetting between a bracket and its count
         if matches!(
             c,
-            '=' | '≡' | '\u{200b}' | '\u{200c}' | '\u{200d}' | '\u{2060}' | '\u{feff}' | '\u{ad}'
+            '=' | '≡'
+                | '\u{200b}'
+                | '\u{200c}'
+                | '\u{200d}'
+                | '\u{2060}'
+                | '\u{feff}'
+                | '\u{ad}'
+                | '\u{2009}'
+                | '\u{200a}'
+                | '\u{202f}'
         ) {
             continue;
         }
@@ -786,7 +799,7 @@ fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
             '′' | '’' | '‘' => '\'',
             '•' | '∙' | '⋅' | '・' | '‧' => '·',
             '∗' | '⁎' | '﹡' | '＊' => '*',
-            '\t' | '\u{a0}' | '\u{2000}'..='\u{200a}' | '\u{202f}' | '\u{205f}' | '\u{3000}' => ' ',
+            '\t' | '\u{a0}' | '\u{2000}'..='\u{2008}' | '\u{205f}' | '\u{3000}' => ' ',
             c => {
                 if let Some(i) = SUPER.chars().position(|s| s == c) {
                     char::from(b'0' + i as u8)
@@ -1130,8 +1143,19 @@ impl<'a> Parser<'a> {
             }
             let digits = rest[len..].bytes().take_while(u8::is_ascii_digit).count();
             let n: i32 = rest[len..len + digits].parse().unwrap_or(1);
-            units.push((pos, pos + len + digits, name, Some(q * n)));
-            pos += len + digits;
+            // its charge written after it ("PF6^-", "PF6-"): the table knows it already
+            let mut used = len + digits;
+            let tail = &rest[used..];
+            let sign_at = usize::from(tail.starts_with('^'));
+            let signs = tail[sign_at..]
+                .bytes()
+                .take_while(u8::is_ascii_digit)
+                .count();
+            if tail[sign_at + signs..].starts_with(['+', '-']) {
+                used += sign_at + signs + 1;
+            }
+            units.push((pos, pos + used, name, Some(q * n)));
+            pos += used;
         }
         let bracketed = units.iter().filter(|(s, _, _, _)| b[*s] == b'[').count();
         if units.len() < 2 || bracketed == 0 {
@@ -1270,7 +1294,11 @@ impl<'a> Parser<'a> {
         let mut at = 0;
         let mut names = Vec::new();
         let mut charge = 0;
-        while let Some((name, q)) = CATIONS.iter().find(|(n, _)| t[at..].starts_with(n)) {
+        while let Some((name, q)) = CATIONS
+            .iter()
+            .filter(|(n, _)| *n != "H")
+            .find(|(n, _)| t[at..].starts_with(n))
+        {
             let after = at + name.len();
             // "K" must not be the start of a longer metal symbol or ligand ("Ir", "Kr")
             if t[after..].starts_with(|c: char| c.is_ascii_lowercase()) {

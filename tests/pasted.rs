@@ -270,3 +270,25 @@ fn acids_and_charged_counter_ions() {
     // a narrow space between a bracket and its count
     assert_eq!(counts("[Ir(cod)Cl]\u{202f}₂"), (16, 1, 8));
 }
+
+#[test]
+fn salts_without_brackets_and_joined_prefixes() {
+    // [Ru(bpy)3]Cl2 and [Co(NH3)6]Cl3 as often typed without brackets: 18 e each (common
+    // practice); the anions would take the metal past 18 e, so they are counter-ions
+    assert_eq!(counts("Ru(bpy)₃Cl₂"), (18, 2, 6));
+    assert_eq!(counts("Co(NH3)6Cl3"), (18, 3, 6));
+    assert_eq!(counts("Cu(MeCN)₄PF₆"), (18, 1, 10));
+    let (_, r) = read("Ru(bpy)3Cl2");
+    assert!(
+        r.notes.iter().any(|n| n.contains("counter-ion")),
+        "{:?}",
+        r.notes
+    );
+    // a bound chloride that keeps the count at 18 stays bound
+    assert_eq!(counts("CpFe(CO)2Cl"), (18, 2, 6));
+    // several isomer descriptors joined by a comma
+    assert_eq!(
+        read("mer,trans-ReOCl₃(PPh₃)₂").0,
+        "mer,trans-[Re(PPh3)2Cl3(κ1-O)]"
+    );
+}

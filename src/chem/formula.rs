@@ -185,6 +185,11 @@ pub fn parse(input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseErr
         .as_ref()
         .map(|c| &c[..body.chars().count().min(c.len())]);
     let mut complex = parse_body(body, body_cols, input, lookup)?;
+    // a salt written without brackets ("Ru(bpy)3Cl2", "Cu(MeCN)4PF6"): anions at the end that
+    // would take a metal past 18 e are counter-ions
+    if let Some(better) = unbracketed_salt(body, &complex, lookup) {
+        complex = better;
+    }
     for site in &complex.sites {
         let units: u32 = site.ligands.iter().map(|b| b.count).sum();
         if units > MAX_PER_METAL {
@@ -336,6 +341,46 @@ fn parse_body(
         ));
     }
     Ok(complex)
+}
+
+/// Re-read a formula whose trailing anions would put its single metal above 18 e as a
+/// bracketed ion with those anions outside; None when that does not help.
+fn unbracketed_salt(body: &str, complex: &Complex, lookup: &dyn LigandLookup) -> Option<Complex> {
+    if complex.metal_count() != 1 || body.contains('[') {
+        return None;
+    }
+    let report = super::count::count(complex);
+    let m = report.metals.first()?;
+    if m.electron_count <= Frac::int(18) {
+        return None;
+    }
+    let b = body.trim_end();
+    // split points after a ')' or a digit, longest anion run first
+    (1..b.len())
+        .filter(|&i| b.is_char_boundary(i))
+        .find_map(|i| {
+            let (head, tail) = b.split_at(i);
+            if !head.ends_with(|c: char| c == ')' || c.is_ascii_digit()) {
+                return None;
+            }
+            let ions = ion_list(tail, ANIONS).filter(|l| !l.is_empty())?;
+            let text = format!("[{head}]{tail}");
+            let mut c = parse(&text, lookup).ok()?;
+            let r = super::count::count(&c);
+            let n = r.metals.first()?;
+            (n.electron_count <= Frac::int(18) && r.impossible().is_none()).then(|| {
+                let names: Vec<&str> = ions.iter().map(|(n, _)| n.as_str()).collect();
+                c.notes.push(format!(
+                    "{} read as counter-ion{}: bound, the metal would have {} e; write \
+                 [{head}]{tail} to say so",
+                    names.join(", "),
+                    if names.len() == 1 { "" } else { "s" },
+                    m.electron_count
+                ));
+                c.stereo = complex.stereo.clone();
+                c
+            })
+        })
 }
 
 /// The ions of a formula: one complex, or both complex ions of a salt where each holds a
@@ -932,15 +977,30 @@ impl<'a> Parser<'a> {
         let mut found: Vec<&str> = Vec::new();
         loop {
             let rest = &self.text[at..];
-            let len = ISOMER_PREFIXES
-                .iter()
-                .find(|p| {
-                    rest.len() > p.len()
-                        && rest
-                            .get(..p.len())
-                            .is_some_and(|h| h.eq_ignore_ascii_case(p))
+            // several joined by commas: "mer,trans-"
+            let joined = rest.find('-').filter(|&i| {
+                let head = &rest[..i];
+                head.contains(',')
+                    && head.split(',').all(|w| {
+                        ISOMER_PREFIXES
+                            .iter()
+                            .any(|p| p.trim_end_matches('-').eq_ignore_ascii_case(w.trim()))
+                    })
+            });
+            let len = joined
+                .map(|i| i + 1)
+                .filter(|&n| rest.len() > n)
+                .or_else(|| {
+                    ISOMER_PREFIXES
+                        .iter()
+                        .find(|p| {
+                            rest.len() > p.len()
+                                && rest
+                                    .get(..p.len())
+                                    .is_some_and(|h| h.eq_ignore_ascii_case(p))
+                        })
+                        .map(|p| p.len())
                 })
-                .map(|p| p.len())
                 .or_else(|| configuration_label(rest).filter(|&n| rest.len() > n));
             match len {
                 Some(n) => {

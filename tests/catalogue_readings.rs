@@ -54,6 +54,7 @@ fn every_ligand_in_every_mode_prints_and_reads_back() {
                 shared: vec![b],
                 charge: 0,
                 notes: Vec::new(),
+                stereo: None,
             };
             let mut c = c;
             c.canonicalize();

@@ -8,46 +8,34 @@ use std::hint::black_box;
 
 /// A mix of the shapes a literature list holds: carbonyls, metallocenes, Werner complexes,
 /// phosphine complexes, clusters and bridged dimers.
-const FORMULAS: &[&str] = &[
-    "CpFe(CO)2Me",
-    "[Co(NH3)6]3+",
-    "RhCl(PPh3)3",
-    "IrCl(CO)(PPh3)2",
-    "Mn2(CO)10",
-    "Os3(CO)12",
-    "Cp2ZrCl2",
-    "[Fe(CN)6]4-",
-    "Pd(PtBu3)2",
-    "Rh2(μ-Cl)2(CO)4",
-    "[PtCl3(C2H4)]-",
-    "W(CO)3(PCy3)2(η2-H2)",
-    "Cr(acac)3",
-    "[Ru(bpy)3]2+",
-    "(η6-C6H6)Cr(CO)3",
-    "[ReH9]2-",
-];
+const SAMPLE: &str = include_str!("sample_formulas.txt");
+
+fn formulas() -> Vec<&'static str> {
+    SAMPLE.lines().filter(|l| !l.trim().is_empty()).collect()
+}
 
 fn bench(c: &mut Criterion) {
+    let formulas = formulas();
     let cat = Catalogue::bundled();
     let mut g = c.benchmark_group("count");
-    g.throughput(Throughput::Elements(FORMULAS.len() as u64));
+    g.throughput(Throughput::Elements(formulas.len() as u64));
     g.bench_function("parse", |b| {
         b.iter(|| {
-            for f in FORMULAS {
+            for f in &formulas {
                 black_box(parse(black_box(f), &cat).ok());
             }
         })
     });
     g.bench_function("parse+count", |b| {
         b.iter(|| {
-            for f in FORMULAS {
+            for f in &formulas {
                 if let Ok(c) = parse(black_box(f), &cat) {
                     black_box(count(&c));
                 }
             }
         })
     });
-    let complexes: Vec<_> = FORMULAS
+    let complexes: Vec<_> = formulas
         .iter()
         .filter_map(|f| parse(f, &cat).ok())
         .collect();
@@ -55,7 +43,7 @@ fn bench(c: &mut Criterion) {
         let mut buf = Vec::with_capacity(1 << 16);
         b.iter(|| {
             buf.clear();
-            for (f, c) in FORMULAS.iter().zip(&complexes) {
+            for (f, c) in formulas.iter().zip(&complexes) {
                 let r = count(c);
                 buf.extend_from_slice(f.as_bytes());
                 serde_json::to_writer(&mut buf, &r).ok();

@@ -256,35 +256,21 @@ fn inputs() -> usize {
 
 fn corpus() -> Vec<String> {
     let cat = common::cat();
-    let mut seeds: Vec<String> = [
-        "CpFe(CO)2Me",
-        "[Co(NH3)6]3+",
-        "RhCl(PPh3)3",
-        "IrCl(CO)(PPh3)2",
-        "Mn2(CO)10",
-        "Os3(CO)12",
-        "Cp2ZrCl2",
-        "[Fe(CN)6]4-",
-        "Pd(PtBu3)2",
-        "Rh2(μ-Cl)2(CO)4",
-        "[PtCl3(C2H4)]-",
-        "W(CO)3(PCy3)2(η2-H2)",
-        "Cr(acac)3",
-        "[Ru(bpy)3]2+",
-        "(η6-C6H6)Cr(CO)3",
-        "[ReH9]2-",
-        "[Cp2Co][PF6]",
-        "Ni(cod)2",
-        "Cp*2Sc(nPr)",
-        "Pd(PPh3)2Br(Ph)",
-        "[Cp2ZrMe]+",
-        "Fe(CO)5",
-        "Pd(OAc)2",
-        "[Cu(NCMe)4]BF4",
-    ]
-    .iter()
-    .map(|s| s.to_string())
-    .collect();
+    // the literature sample the benchmarks use, and more shapes
+    let mut seeds: Vec<String> = include_str!("../benches/sample_formulas.txt")
+        .lines()
+        .chain([
+            "[Cp2Co][PF6]",
+            "Ni(cod)2",
+            "Cp*2Sc(nPr)",
+            "Pd(PPh3)2Br(Ph)",
+            "[Cp2ZrMe]+",
+            "Fe(CO)5",
+            "Pd(OAc)2",
+            "[Cu(NCMe)4]BF4",
+        ])
+        .map(|s| s.to_string())
+        .collect();
     seeds.extend(
         cat.ligands()
             .iter()

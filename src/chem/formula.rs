@@ -349,6 +349,14 @@ fn unbracketed_salt(body: &str, complex: &Complex, lookup: &dyn LigandLookup) ->
     if complex.metal_count() != 1 || body.contains('[') {
         return None;
     }
+    // only when the text ends with a counter-anion's name: the count below is not free
+    let tail = body
+        .trim_end()
+        .trim_end_matches(|c: char| c.is_ascii_digit())
+        .trim_end_matches(')');
+    if !ANIONS.iter().any(|(n, _)| tail.ends_with(n)) {
+        return None;
+    }
     let report = super::count::count(complex);
     let m = report.metals.first()?;
     if m.electron_count <= Frac::int(18) {

@@ -292,3 +292,12 @@ fn salts_without_brackets_and_joined_prefixes() {
         "mer,trans-[Re(PPh3)2Cl3(κ1-O)]"
     );
 }
+
+#[test]
+fn a_cubane_keeps_its_written_mu3_sulfides_and_terminal_thiolates() {
+    // [Fe4S4(SR)4]2-: four μ3-S, four terminal thiolates, Fe2.5+ on average (Holm, Kennepohl
+    // & Solomon, Chem. Rev. 1996, 96, 2239)
+    let (f, r) = read("[Fe4(μ3-S)4(SMe)4]2-");
+    assert_eq!(f, "[Fe4(SMe)4(μ3-S)4]2-");
+    assert_eq!(r.metals[0].oxidation_state, Frac::new(5, 2));
+}

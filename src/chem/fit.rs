@@ -230,6 +230,15 @@ fn fit_bridges(c: &mut Complex) {
     if !open {
         return;
     }
+    // a core already held by written μ3 or higher bridges (the Fe4(μ3-S)4 cubane) keeps its
+    // other ligands terminal, as [Fe4S4(SR)4]2- is drawn (Holm, Kennepohl & Solomon, Chem.
+    // Rev. 1996, 96, 2239)
+    let caged = c
+        .all_ligands()
+        .any(|(_, b)| b.pinned && b.mode().bridges >= 3);
+    if caged {
+        return;
+    }
     // each pass bridges one ligand; the bound only guards against a loop
     for _ in 0..256 {
         let r = count(c);

@@ -301,3 +301,17 @@ fn a_cubane_keeps_its_written_mu3_sulfides_and_terminal_thiolates() {
     assert_eq!(f, "[Fe4(SMe)4(μ3-S)4]2-");
     assert_eq!(r.metals[0].oxidation_state, Frac::new(5, 2));
 }
+
+#[test]
+fn paddlewheel_carboxylates_bridge() {
+    // M2(O2CR)4 paddlewheels: each carboxylate bridges the two metals κ1:κ1; Mo2(OAc)4 has a
+    // quadruple bond, Rh2(OAc)4 a single one (Cotton, Murillo & Walton, Multiple Bonds between
+    // Metal Atoms, 3rd ed., 2005)
+    let (f, r) = read("Rh2(OAc)4");
+    assert_eq!(f, "[Rh2(μ-OAc)4]");
+    assert_eq!(r.metal_metal_bonds, Some(1));
+    assert!(r.notes.iter().any(|n| n.contains("κ1:κ1")), "{:?}", r.notes);
+    let (f, r) = read("Mo2(OAc)4");
+    assert_eq!(f, "[Mo2(μ-OAc)4]");
+    assert_eq!(r.metal_metal_bonds, Some(4));
+}

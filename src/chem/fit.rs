@@ -26,6 +26,7 @@ const FLEXIBLE: &[&str] = &[
 /// Settle the modes the formula left open, noting what was chosen in `c.notes`.
 pub fn fit_modes(c: &mut Complex) {
     if c.metal_count() != 1 {
+        fit_paddlewheel(c);
         fit_bridges(c);
         return;
     }
@@ -215,6 +216,57 @@ const BRIDGING: &[&str] = &[
     // dienones such as dba span two metals with their two C=C (Pd2(dba)3: 16 e per Pd(0))
     "alkene",
 ];
+
+/// Carboxylates written without a mode on a dimer (Rh2(OAc)4, Cu2(OAc)4(H2O)2, Mo2(OAc)4)
+/// bridge the two metals κ1:κ1, one O on each, as in every paddlewheel (Cotton, Murillo &
+/// Walton, Multiple Bonds between Metal Atoms, 3rd ed., Springer 2005); the count is the same
+/// as with chelates, the structure is not.
+fn fit_paddlewheel(c: &mut Complex) {
+    if c.metal_count() != 2 {
+        return;
+    }
+    let mut changed = Vec::new();
+    for b in c
+        .sites
+        .iter_mut()
+        .flat_map(|s| s.ligands.iter_mut())
+        .chain(c.shared.iter_mut())
+    {
+        if b.pinned || b.ligand.family != "carboxylate" || b.mode().bridges >= 2 {
+            continue;
+        }
+        if let Some(i) = b
+            .ligand
+            .modes
+            .iter()
+            .position(|m| m.bridges == 2 && m.donors == 2)
+        {
+            b.mode = i;
+            if !changed.contains(&b.ligand.key) {
+                changed.push(b.ligand.key.clone());
+            }
+        }
+    }
+    if !changed.is_empty() {
+        // bridging ligands belong to both metals
+        let mut moved = Vec::new();
+        for s in &mut c.sites {
+            let (bridging, terminal): (Vec<_>, Vec<_>) =
+                s.ligands.drain(..).partition(|b| b.mode().bridges >= 2);
+            s.ligands = terminal;
+            moved.extend(bridging);
+        }
+        c.shared.extend(moved);
+        c.canonicalize();
+        let text = format!(
+            "{} read as bridging both metals κ1:κ1 (a paddlewheel), not chelating",
+            changed.join(", ")
+        );
+        if !c.notes.contains(&text) {
+            c.notes.push(text);
+        }
+    }
+}
 
 /// In a polynuclear complex written without μ marks (`[Rh(COD)Cl]2`, `[Cp*IrCl2]2`), let halide
 /// and alkoxide lone pairs bridge before any M-M bond is inferred, as textbooks draw these

@@ -315,3 +315,13 @@ fn paddlewheel_carboxylates_bridge() {
     assert_eq!(f, "[Mo2(μ-OAc)4]");
     assert_eq!(r.metal_metal_bonds, Some(4));
 }
+
+#[test]
+fn inline_charges_and_first_row_allyls() {
+    // cobaltocenium hexafluorophosphate as a paper prints it, 18 e Co(III) (Crabtree 2014,
+    // ch. 5)
+    assert_eq!(counts("Cp₂Co⁺PF₆⁻"), (18, 3, 6));
+    // (η3-allyl)Co(CO)3: 18 e Co(I); first-row Co(I) is not pushed down to square-planar 16 e
+    // (Hartwig 2010, ch. 1)
+    assert_eq!(counts("Co(C₃H₅)(CO)₃"), (18, 1, 8));
+}

@@ -80,7 +80,12 @@ pub fn fit_modes(c: &mut Complex) {
     // complex with its flexible ligands further down (Pd(κ1-OAc)2(PPh3)2)
     let r = count(c);
     if let Some(m) = r.metals.first() {
-        let d8 = m.d_electrons == Frac::int(8) && m.group.is_some_and(|g| (9..=11).contains(&g));
+        // Co(I) is not square planar with its flexible ligands down: (η3-allyl)Co(CO)3 is
+        // 18 e (Hartwig 2010, ch. 1); the heavier group 9 metals and groups 10-11 are
+        let first_row_co = c.sites[0].element.is_first_row() && m.group == Some(9);
+        let d8 = m.d_electrons == Frac::int(8)
+            && m.group.is_some_and(|g| (9..=11).contains(&g))
+            && !first_row_co;
         if d8 && m.electron_count == Frac::int(18) {
             let mut trial = c.clone();
             lower_modes(&mut trial, Some(16));

@@ -1137,6 +1137,40 @@ impl<'a> Parser<'a> {
         notes: &mut Vec<String>,
     ) -> Result<Option<(usize, usize, Option<i32>, Option<i32>)>, ParseError> {
         let t = self.text.trim_end();
+        // an unbracketed complex ion with its charge printed inline, then its counter-ions
+        // ("Cp2Co⁺PF6⁻" as a paper prints it)
+        if let Some(caret) = t[start.min(t.len())..].find('^').map(|i| i + start) {
+            let after = &t[caret + 1..];
+            let digits = after.bytes().take_while(u8::is_ascii_digit).count();
+            if let Some(sign @ (b'+' | b'-')) = after.as_bytes().get(digits).copied() {
+                let rest = after[digits + 1..].trim();
+                // the counter-ions, each perhaps with its own printed charge
+                let plain: String = rest
+                    .split('^')
+                    .map(|p| p.trim_start_matches(['+', '-']))
+                    .collect();
+                let plain = plain.trim_end_matches(['+', '-']);
+                if !rest.is_empty() && !t[start..caret].contains('[') {
+                    let table = if sign == b'+' { ANIONS } else { CATIONS };
+                    if let Some(ions) = ion_list(plain, table).filter(|l| !l.is_empty()) {
+                        let n: i32 = if digits == 0 {
+                            1
+                        } else {
+                            after[..digits].parse().unwrap_or(1)
+                        };
+                        let q = if sign == b'+' { n } else { -n };
+                        let counter: i32 = ions.iter().map(|(_, c)| c).sum();
+                        let names: Vec<String> = ions.into_iter().map(|(n, _)| n).collect();
+                        notes.push(format!(
+                            "{} taken as counter-ion{} outside the coordination sphere",
+                            names.join(", "),
+                            if names.len() == 1 { "" } else { "s" }
+                        ));
+                        return Ok(Some((start, caret, Some(q), Some(-counter))));
+                    }
+                }
+            }
+        }
         // a salt has at least one bracketed ion
         if !t[start.min(t.len())..].contains('[') {
             return Ok(None);

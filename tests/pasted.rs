@@ -325,3 +325,16 @@ fn inline_charges_and_first_row_allyls() {
     // (Hartwig 2010, ch. 1)
     assert_eq!(counts("Co(C₃H₅)(CO)₃"), (18, 1, 8));
 }
+
+#[test]
+fn pdf_spacing_labels_in_parentheses_and_ligand_first_adducts() {
+    // spaces a PDF puts inside tokens; Wilkinson's catalyst 16 e, Pd(PPh3)4 18 e (common
+    // practice); a space before a charge still marks the charge
+    assert_eq!(counts("RhCl(PPh 3 ) 3"), (16, 1, 8));
+    assert_eq!(counts("Pd(PPh 3 ) 4"), (18, 0, 10));
+    assert_eq!(counts("Co(NH3)6 3+"), (18, 3, 6));
+    // an enantiomer label inside the ligand's parentheses: oxaliplatin, Pt(II) 16 e
+    assert_eq!(counts("[Pt((1R,2R)-dach)(ox)]"), (16, 2, 8));
+    // the ligand written before the dot: (Me2S)AuCl, Au(I) 14 e (common practice)
+    assert_eq!(counts("Me₂S·AuCl"), (14, 1, 10));
+}

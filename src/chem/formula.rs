@@ -184,7 +184,17 @@ pub fn parse(input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseErr
     let body_cols = cols
         .as_ref()
         .map(|c| &c[..body.chars().count().min(c.len())]);
-    let mut complex = parse_body(body, body_cols, input, lookup)?;
+    let mut complex = match parse_body(body, body_cols, input, lookup) {
+        // a ligand written before the dot and the metal after it ("Me2S·AuCl"): the adduct
+        // of the two
+        Err(e) if e.message == "no metal in the formula" => match solvent {
+            Some(s) if !s.is_empty() && !body.trim().is_empty() && has_metal_token(s) => {
+                return parse(&format!("{s}·{}", body.trim()), lookup)
+            }
+            _ => return Err(e),
+        },
+        other => other?,
+    };
     // a salt written without brackets ("Ru(bpy)3Cl2", "Cu(MeCN)4PF6"): anions at the end that
     // would take a metal past 18 e are counter-ions
     if let Some(better) = unbracketed_salt(body, &complex, lookup) {
@@ -783,7 +793,7 @@ fn configuration_label(text: &str) -> Option<usize> {
 fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
     if input
         .bytes()
-        .all(|b| b.is_ascii() && b != b'\t' && b != b'=' && b != b'{')
+        .all(|b| b.is_ascii() && b != b'\t' && b != b'=' && b != b'{' && b != b' ')
     {
         return (Cow::Borrowed(input), None);
     }
@@ -873,6 +883,37 @@ fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
         };
         text.push(mapped);
         cols.push(col);
+    }
+    // spaces a PDF puts inside tokens ("Pd(PPh 3 ) 4"): after an opening bracket, before a
+    // closing one, and before a count that is not a charge ("Co(NH3)6 3+" keeps its space)
+    if text.contains(' ') {
+        let chars: Vec<char> = text.chars().collect();
+        let mut kept = String::with_capacity(text.len());
+        let mut kept_cols = Vec::with_capacity(cols.len());
+        for (i, &c) in chars.iter().enumerate() {
+            if c == ' ' {
+                let prev = chars[..i].iter().rev().find(|x| **x != ' ').copied();
+                let next_at = (i + 1..chars.len()).find(|&j| chars[j] != ' ');
+                let next = next_at.map(|j| chars[j]);
+                let count_follows = next.is_some_and(|n| n.is_ascii_digit()) && {
+                    let j = next_at.unwrap_or(i);
+                    let after = chars[j..]
+                        .iter()
+                        .skip_while(|x| x.is_ascii_digit())
+                        .find(|x| **x != ' ');
+                    !matches!(after, Some('+' | '-'))
+                };
+                let inside = matches!(prev, Some('(' | '['))
+                    || matches!(next, Some(')' | ']'))
+                    || (prev.is_some_and(|p| p.is_ascii_alphabetic() || p == ')') && count_follows);
+                if inside {
+                    continue;
+                }
+            }
+            kept.push(c);
+            kept_cols.push(cols.get(i).copied().unwrap_or(i));
+        }
+        return (Cow::Owned(kept), Some(kept_cols));
     }
     (Cow::Owned(text), Some(cols))
 }
@@ -1624,6 +1665,13 @@ impl<'a> Parser<'a> {
         }
         if content.is_empty() {
             return Err(self.error(start.saturating_sub(1), 2, "empty parentheses".into()));
+        }
+        // an enantiomer's label before the ligand: "((1R,2R)-dach)", "((S)-BINAP)"
+        if let Some(n) = configuration_label(content) {
+            if self.lookup.exact(&content[n..]).is_some() {
+                at += n;
+                content = &content[n..];
+            }
         }
         if let Some(l) = self.lookup.exact(content) {
             return Ok(Item::Ligand(BoundLigand::new(l.clone(), 0, 1)));

@@ -338,3 +338,11 @@ fn pdf_spacing_labels_in_parentheses_and_ligand_first_adducts() {
     // the ligand written before the dot: (Me2S)AuCl, Au(I) 14 e (common practice)
     assert_eq!(counts("Me₂S·AuCl"), (14, 1, 10));
 }
+
+#[test]
+fn an_adduct_with_no_metal_on_either_side_is_refused_not_looped() {
+    // "AcO" is acetate, whose key spells actinium: no metal on either side of the dot
+    for f in ["AcO·AcO", "AcO·Me2S", "Me2S·AcO", "THF·THF"] {
+        assert!(parse(f, cat()).is_err(), "{f}");
+    }
+}

@@ -188,7 +188,13 @@ pub fn parse(input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseErr
         // a ligand written before the dot and the metal after it ("Me2S·AuCl"): the adduct
         // of the two
         Err(e) if e.message == "no metal in the formula" => match solvent {
-            Some(s) if !s.is_empty() && !body.trim().is_empty() && has_metal_token(s) => {
+            // (once: the swapped text has its metal token first, so it never swaps back)
+            Some(s)
+                if !s.is_empty()
+                    && !body.trim().is_empty()
+                    && has_metal_token(s)
+                    && !has_metal_token(body) =>
+            {
                 return parse(&format!("{s}·{}", body.trim()), lookup)
             }
             _ => return Err(e),

@@ -359,6 +359,126 @@ fn parse_body(
     Ok(complex)
 }
 
+/// One ion of a salt as written: its span, the text inside its brackets (or a counter-ion's
+/// name), and its charge (as written, or a counter-ion's own times its count).
+struct SaltUnit<'t> {
+    start: usize,
+    end: usize,
+    inner: &'t str,
+    bracketed: bool,
+    charge: Option<i32>,
+}
+
+/// The ions of a salt written side by side from `start` ("[Cp2Co]+[PF6]-", "K2[PtCl4]",
+/// "[Fe(H2O)6](BF4)2", "[Cp2Fe][PF6]2"); None when the text is not such a row.
+fn salt_units(t: &str, start: usize) -> Option<Vec<SaltUnit<'_>>> {
+    let known = |inner: &str| {
+        CATIONS
+            .iter()
+            .chain(ANIONS)
+            .find(|(n, _)| *n == inner)
+            .map(|(_, q)| *q)
+    };
+    let b = t.as_bytes();
+    let mut units = Vec::new();
+    let mut pos = start;
+    while pos < t.len() {
+        if b[pos] == b' ' {
+            pos += 1;
+            continue;
+        }
+        if b[pos] == b'[' {
+            let mut depth = 0usize;
+            let close = (pos..b.len()).find(|&i| {
+                match b[i] {
+                    b'[' => depth += 1,
+                    b']' => depth = depth.saturating_sub(1),
+                    _ => return false,
+                }
+                depth == 0
+            })?;
+            let inner = &t[pos + 1..close];
+            // a charge right after the bracket: "+", "2-", "^3+"
+            let mut q = close + 1;
+            if b.get(q) == Some(&b'^') {
+                q += 1;
+            }
+            let digits = b[q.min(b.len())..]
+                .iter()
+                .take_while(|c| c.is_ascii_digit())
+                .count();
+            let charge = match b.get(q + digits) {
+                Some(&(s @ b'+' | s @ b'-')) => {
+                    let n: i32 = if digits == 0 {
+                        1
+                    } else {
+                        t[q..q + digits].parse().unwrap_or(99)
+                    };
+                    q += digits + 1;
+                    Some(if s == b'+' { n } else { -n })
+                }
+                // a count on a bracketed counter-ion ("[PF6]2"); on anything else a multiplier
+                // of a dimer ("[CpFe(CO)2]2"), not a salt
+                _ if digits > 0 => {
+                    let k = known(inner)?;
+                    let n: i32 = t[q..q + digits].parse().unwrap_or(1);
+                    q += digits;
+                    Some(k * n)
+                }
+                _ => {
+                    q = close + 1;
+                    None
+                }
+            };
+            units.push(SaltUnit {
+                start: pos,
+                end: close + 1,
+                inner,
+                bracketed: true,
+                charge,
+            });
+            pos = q;
+            continue;
+        }
+        // a known counter-ion without brackets, with a count: "K2", "(BF4)2", "Cl3"
+        let rest = &t[pos..];
+        let (name, q) = CATIONS.iter().chain(ANIONS).find(|(n, _)| {
+            rest.starts_with(n)
+                || rest
+                    .strip_prefix('(')
+                    .is_some_and(|r| r.starts_with(n) && r[n.len()..].starts_with(')'))
+        })?;
+        let paren = rest.starts_with('(');
+        let len = name.len() + if paren { 2 } else { 0 };
+        // "K" must not be the start of a longer symbol or ligand ("Kr", "Cl" in "Cl2Pd")
+        if !paren && rest[len..].starts_with(|c: char| c.is_ascii_lowercase()) {
+            return None;
+        }
+        let digits = rest[len..].bytes().take_while(u8::is_ascii_digit).count();
+        let n: i32 = rest[len..len + digits].parse().unwrap_or(1);
+        // its charge written after it ("PF6^-", "PF6-"): the table knows it already
+        let mut used = len + digits;
+        let tail = &rest[used..];
+        let sign_at = usize::from(tail.starts_with('^'));
+        let signs = tail[sign_at..]
+            .bytes()
+            .take_while(u8::is_ascii_digit)
+            .count();
+        if tail[sign_at + signs..].starts_with(['+', '-']) {
+            used += sign_at + signs + 1;
+        }
+        units.push(SaltUnit {
+            start: pos,
+            end: pos + used,
+            inner: name,
+            bracketed: false,
+            charge: Some(q * n),
+        });
+        pos += used;
+    }
+    Some(units)
+}
+
 /// Re-read a formula whose trailing anions would put its single metal above 18 e as a
 /// bracketed ion with those anions outside; None when that does not help.
 fn unbracketed_salt(body: &str, complex: &Complex, lookup: &dyn LigandLookup) -> Option<Complex> {
@@ -419,78 +539,16 @@ pub fn parse_ions(input: &str, lookup: &dyn LigandLookup) -> Result<Vec<Complex>
     };
     let (text, _) = normalize(input);
     let t = text.trim();
-    // the top-level units: bracketed ions with an optional charge, or known counter-ions
+    // the ions side by side, and what the known counter-ions among them give
+    let Some(units) = salt_units(t, 0) else {
+        return Err(e);
+    };
     let mut ions: Vec<(&str, Option<i32>)> = Vec::new();
     let mut counter = 0;
-    let b = t.as_bytes();
-    let mut pos = 0;
-    while pos < t.len() {
-        match b[pos] {
-            b' ' => pos += 1,
-            b'[' => {
-                let mut depth = 0;
-                let mut close = None;
-                for (i, &c) in b.iter().enumerate().skip(pos) {
-                    match c {
-                        b'[' => depth += 1,
-                        b']' => {
-                            depth -= 1;
-                            if depth == 0 {
-                                close = Some(i);
-                                break;
-                            }
-                        }
-                        _ => {}
-                    }
-                }
-                let Some(close) = close else { return Err(e) };
-                let inner = &t[pos + 1..close];
-                let mut q = close + 1;
-                if b.get(q) == Some(&b'^') {
-                    q += 1;
-                }
-                let digits = b[q.min(b.len())..]
-                    .iter()
-                    .take_while(|c| c.is_ascii_digit())
-                    .count();
-                let charge = match b.get(q + digits) {
-                    Some(&sign @ (b'+' | b'-')) => {
-                        let n: i32 = if digits == 0 {
-                            1
-                        } else {
-                            t[q..q + digits].parse().unwrap_or(1)
-                        };
-                        q += digits + 1;
-                        Some(if sign == b'+' { n } else { -n })
-                    }
-                    _ => {
-                        q = close + 1;
-                        None
-                    }
-                };
-                match CATIONS.iter().chain(ANIONS).find(|(n, _)| *n == inner) {
-                    Some((_, k)) => counter += charge.unwrap_or(*k),
-                    None => ions.push((inner, charge)),
-                }
-                pos = q;
-            }
-            _ => {
-                let rest = &t[pos..];
-                let Some((name, k)) = CATIONS
-                    .iter()
-                    .chain(ANIONS)
-                    .find(|(n, _)| rest.starts_with(n))
-                else {
-                    return Err(e);
-                };
-                let digits = rest[name.len()..]
-                    .bytes()
-                    .take_while(u8::is_ascii_digit)
-                    .count();
-                let n: i32 = rest[name.len()..name.len() + digits].parse().unwrap_or(1);
-                counter += k * n;
-                pos += name.len() + digits;
-            }
+    for u in &units {
+        match CATIONS.iter().chain(ANIONS).find(|(n, _)| *n == u.inner) {
+            Some((_, k)) => counter += u.charge.unwrap_or(*k),
+            None => ions.push((u.inner, u.charge)),
         }
     }
     let [(a, qa), (b_ion, qb)] = ions[..] else {
@@ -1222,92 +1280,10 @@ impl<'a> Parser<'a> {
         if !t[start.min(t.len())..].contains('[') {
             return Ok(None);
         }
-        let b = t.as_bytes();
-        // (span start, span end, inner text, written charge)
-        let mut units: Vec<(usize, usize, &str, Option<i32>)> = Vec::new();
-        let mut pos = start;
-        while pos < t.len() {
-            if b[pos] == b' ' {
-                pos += 1;
-                continue;
-            }
-            if b[pos] == b'[' {
-                let Ok(close) = self.matching(pos, t.len()) else {
-                    return Ok(None);
-                };
-                // a charge right after the bracket: "+", "2-", "^3+"
-                let mut q = close + 1;
-                if q < t.len() && b[q] == b'^' {
-                    q += 1;
-                }
-                let digits = b[q..].iter().take_while(|c| c.is_ascii_digit()).count();
-                let charge = match b.get(q + digits) {
-                    Some(&(s @ b'+' | s @ b'-')) => {
-                        let n: i32 = if digits == 0 {
-                            1
-                        } else {
-                            t[q..q + digits].parse().unwrap_or(99)
-                        };
-                        q += digits + 1;
-                        Some(if s == b'+' { n } else { -n })
-                    }
-                    // a count on a bracketed counter-ion ("[PF6]2"); on anything else a
-                    // multiplier of a dimer ("[CpFe(CO)2]2"), not a salt
-                    _ if digits > 0 => {
-                        let inner = &t[pos + 1..close];
-                        match CATIONS.iter().chain(ANIONS).find(|(n, _)| *n == inner) {
-                            Some((_, q1)) => {
-                                let n: i32 = t[q..q + digits].parse().unwrap_or(1);
-                                q += digits;
-                                Some(q1 * n)
-                            }
-                            None => return Ok(None),
-                        }
-                    }
-                    _ => {
-                        q = close + 1;
-                        None
-                    }
-                };
-                units.push((pos, close + 1, &t[pos + 1..close], charge));
-                pos = q;
-                continue;
-            }
-            // a known counter-ion without brackets, with a count: "K2", "(BF4)2", "Cl3"
-            let rest = &t[pos..];
-            let found = CATIONS.iter().chain(ANIONS).find(|(n, _)| {
-                rest.starts_with(n)
-                    || rest
-                        .strip_prefix('(')
-                        .is_some_and(|r| r.starts_with(n) && r[n.len()..].starts_with(')'))
-            });
-            let Some((name, q)) = found else {
-                return Ok(None);
-            };
-            let paren = rest.starts_with('(');
-            let len = name.len() + if paren { 2 } else { 0 };
-            // "K" must not be the start of a longer symbol or ligand ("Kr", "Cl" in "Cl2Pd")
-            if !paren && rest[len..].starts_with(|c: char| c.is_ascii_lowercase()) {
-                return Ok(None);
-            }
-            let digits = rest[len..].bytes().take_while(u8::is_ascii_digit).count();
-            let n: i32 = rest[len..len + digits].parse().unwrap_or(1);
-            // its charge written after it ("PF6^-", "PF6-"): the table knows it already
-            let mut used = len + digits;
-            let tail = &rest[used..];
-            let sign_at = usize::from(tail.starts_with('^'));
-            let signs = tail[sign_at..]
-                .bytes()
-                .take_while(u8::is_ascii_digit)
-                .count();
-            if tail[sign_at + signs..].starts_with(['+', '-']) {
-                used += sign_at + signs + 1;
-            }
-            units.push((pos, pos + used, name, Some(q * n)));
-            pos += used;
-        }
-        let bracketed = units.iter().filter(|(s, _, _, _)| b[*s] == b'[').count();
-        if units.len() < 2 || bracketed == 0 {
+        let Some(units) = salt_units(t, start) else {
+            return Ok(None);
+        };
+        if units.len() < 2 || !units.iter().any(|u| u.bracketed) {
             return Ok(None);
         }
         let known = |inner: &str| {
@@ -1320,17 +1296,19 @@ impl<'a> Parser<'a> {
         let mut complex_ions = Vec::new();
         let mut counter = 0;
         let mut names = Vec::new();
-        for (s, e, inner, written) in &units {
-            match known(inner) {
-                Some(q) if b[*s] == b'[' => {
-                    counter += written.unwrap_or(q);
-                    names.push(inner.to_string());
+        for u in &units {
+            match known(u.inner) {
+                Some(q) => {
+                    counter += u.charge.unwrap_or(q);
+                    names.push(if u.bracketed {
+                        u.inner.to_string()
+                    } else {
+                        t[u.start..u.end].to_string()
+                    });
                 }
-                Some(_) => {
-                    counter += written.unwrap_or(0);
-                    names.push(t[*s..*e].to_string());
+                None if u.bracketed && has_metal_token(u.inner) => {
+                    complex_ions.push((u.start, u.end, u.charge))
                 }
-                None if has_metal_token(inner) => complex_ions.push((*s, *e, *written)),
                 None => return Ok(None),
             }
         }

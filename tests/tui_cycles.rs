@@ -34,6 +34,9 @@ fn wilkinson_hydrogenation_of_ethylene() {
     keys += press(&mut app, "<enter>"); // ethane leaves, suggested
     assert!(keys <= 22, "{keys} keys");
     assert_eq!(closed_net(&app), "H2 + C2H4 -> C2H6");
+    // the commit that closes the cycle says so, with its net, in the notice line
+    let notice = app.notice.clone().map(|n| n.text).unwrap_or_default();
+    assert!(notice.contains("closes: H2 + C2H4 -> C2H6"), "{notice}");
 }
 
 #[test]

@@ -344,7 +344,15 @@ impl App {
                 if let Some(s) = self.log.session.as_mut() {
                     let id = s.admit(record);
                     self.log.variant = Some(id);
-                    self.notice(&format!("done: {label} (variant {id})"), false);
+                    // a cycle that has come back round is said at once, with its net
+                    let closed = match s.closes(id) {
+                        Some(from) => format!(
+                            "; the cycle from #{from} closes: {} (y shows it)",
+                            s.net(from, id).text()
+                        ),
+                        None => String::new(),
+                    };
+                    self.notice(&format!("done: {label} (variant {id}){closed}"), false);
                     // another process may have written meanwhile
                     self.effects.push(Effect::Refresh);
                 }

@@ -36,7 +36,10 @@ fn wilkinson_hydrogenation_of_ethylene() {
     assert_eq!(closed_net(&app), "H2 + C2H4 -> C2H6");
     // the commit that closes the cycle says so, with its net, in the notice line
     let notice = app.notice.clone().map(|n| n.text).unwrap_or_default();
-    assert!(notice.contains("closes: H2 + C2H4 -> C2H6"), "{notice}");
+    assert!(
+        notice.contains("closes the cycle from #1: H2 + C2H4 -> C2H6"),
+        "{notice}"
+    );
 }
 
 #[test]

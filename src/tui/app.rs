@@ -345,14 +345,16 @@ impl App {
                     let id = s.admit(record);
                     self.log.variant = Some(id);
                     // a cycle that has come back round is said at once, with its net
-                    let closed = match s.closes(id) {
-                        Some(from) => format!(
-                            "; the cycle from #{from} closes: {} (y shows it)",
-                            s.net(from, id).text()
-                        ),
-                        None => String::new(),
-                    };
-                    self.notice(&format!("done: {label} (variant {id}){closed}"), false);
+                    match s.closes(id) {
+                        Some(from) => {
+                            let net = s.net(from, id).text();
+                            self.notice(
+                                &format!("#{id} closes the cycle from #{from}: {net} (y)"),
+                                false,
+                            )
+                        }
+                        None => self.notice(&format!("done: {label} (variant {id})"), false),
+                    }
                     // another process may have written meanwhile
                     self.effects.push(Effect::Refresh);
                 }

@@ -143,9 +143,20 @@ fn render_notice(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
             ),
         ])
     } else {
+        // a notice wider than the window ends in an ellipsis, never cut off silently
+        let fit = |text: String| -> String {
+            let width = area.width as usize;
+            if text.chars().count() > width && width > 1 {
+                let mut t: String = text.chars().take(width - 1).collect();
+                t.push(if app.ascii { '~' } else { '…' });
+                t
+            } else {
+                text
+            }
+        };
         match &app.notice {
-            Some(n) if n.error => Line::styled(format!("! {}", plain(app, &n.text)), t.bad()),
-            Some(n) => Line::styled(plain(app, &n.text), t.good()),
+            Some(n) if n.error => Line::styled(fit(format!("! {}", plain(app, &n.text))), t.bad()),
+            Some(n) => Line::styled(fit(plain(app, &n.text)), t.good()),
             None => Line::raw(""),
         }
     };

@@ -153,7 +153,7 @@ impl Complex {
     /// Element counts of the whole complex (metals and every ligand), when every ligand has a
     /// known structure; counter-ions and lattice solvent are not part of it.
     pub fn composition(&self) -> Option<Composition> {
-        let mut c = Composition::default();
+        let mut c = Composition::with_capacity(8);
         for s in &self.sites {
             c.add(s.element.number, 1);
         }
@@ -178,7 +178,7 @@ impl Complex {
 
     /// The canonical formula: `[Fe(η5-Cp)(CO)2(Me)]`, `[Mn2(CO)10]`, `[[Fe(η5-Cp)(CO)2]2]`.
     pub fn formula(&self, ascii: bool) -> String {
-        let mut out = String::new();
+        let mut out = String::with_capacity(64);
         if let Some(s) = &self.stereo {
             out.push_str(s);
             out.push('-');

@@ -255,6 +255,9 @@ pub fn is_werner(complex: &Complex) -> bool {
 /// Chem. Rev. 1977, 77, 313: such ligands favour ML3 and ML2 over ML4).
 const BULKY_CONE_ANGLE: f64 = 160.0;
 
+/// One value per metal: most complexes have one or two, so these stay off the heap.
+type PerMetal<T> = smallvec::SmallVec<[T; 2]>;
+
 struct Tally<'a> {
     neutral: Frac,
     ionic: Frac,
@@ -281,7 +284,8 @@ impl<'a> Tally<'a> {
         }
     }
 
-    fn new() -> Tally<'a> {
+    /// A tally for `ligands` ligand entries.
+    fn new(ligands: usize) -> Tally<'a> {
         Tally {
             neutral: Frac::ZERO,
             ionic: Frac::ZERO,
@@ -295,7 +299,7 @@ impl<'a> Tally<'a> {
             field_weight: 0.0,
             pi_donor: Vec::new(),
             bulky: Vec::new(),
-            contributions: Vec::new(),
+            contributions: Vec::with_capacity(ligands),
         }
     }
 
@@ -350,11 +354,11 @@ pub fn count(complex: &Complex) -> Report {
     let share = Frac::new(1, n);
     let charge_share = Frac::new(complex.charge as i64, n);
 
-    let tallies: Vec<Tally> = complex
+    let tallies: PerMetal<Tally> = complex
         .sites
         .iter()
         .map(|site| {
-            let mut t = Tally::new();
+            let mut t = Tally::new(site.ligands.len() + complex.shared.len());
             for b in &site.ligands {
                 t.add(b, Frac::int(1), false);
             }
@@ -365,13 +369,13 @@ pub fn count(complex: &Complex) -> Report {
         })
         .collect();
 
-    let oxidation: Vec<Frac> = tallies
+    let oxidation: PerMetal<Frac> = tallies
         .iter()
         .map(|t| charge_share - t.ionic_charge)
         .collect();
     // f-block metals count the electrons beyond their f shell: three (Ln(III), An(III)), or as
     // many as the oxidation state asks (Ce(IV), U(IV)); their f electrons are reported apart
-    let valence: Vec<i64> = complex
+    let valence: PerMetal<i64> = complex
         .sites
         .iter()
         .zip(&oxidation)
@@ -384,18 +388,18 @@ pub fn count(complex: &Complex) -> Report {
         })
         .collect();
     // Before any M-M bond: the count each metal gets from its ligands and its share of charge.
-    let pre: Vec<Frac> = tallies
+    let pre: PerMetal<Frac> = tallies
         .iter()
         .zip(&valence)
         .map(|(t, v)| t.neutral - charge_share + *v)
         .collect();
-    let d: Vec<Frac> = valence
+    let d: PerMetal<Frac> = valence
         .iter()
         .zip(&oxidation)
         .map(|(v, os)| -*os + *v)
         .collect();
     let polynuclear = complex.metal_count() >= 2;
-    let hetero: Vec<bool> = if polynuclear {
+    let hetero: PerMetal<bool> = if polynuclear {
         complex
             .sites
             .iter()
@@ -407,9 +411,9 @@ pub fn count(complex: &Complex) -> Report {
             })
             .collect()
     } else {
-        Vec::new()
+        PerMetal::new()
     };
-    let targets: Vec<u8> = complex
+    let targets: PerMetal<u8> = complex
         .sites
         .iter()
         .zip(&tallies)
@@ -455,7 +459,7 @@ pub fn count(complex: &Complex) -> Report {
         .sum();
 
     let view = if polynuclear {
-        let need: Vec<Frac> = pre
+        let need: PerMetal<Frac> = pre
             .iter()
             .zip(&targets)
             .map(|(p, t)| Frac::int(*t as i64) - *p)
@@ -629,12 +633,12 @@ impl Report {
 
 /// Spread `total` M-M bonds over the metals: exactly where each metal's shortfall says how many
 /// it makes, evenly otherwise.
-fn bonds_per_metal(pre: &[Frac], targets: &[u8], total: u32) -> Vec<Frac> {
+fn bonds_per_metal(pre: &[Frac], targets: &[u8], total: u32) -> PerMetal<Frac> {
     let n = pre.len() as i64;
     if total == 0 || n < 2 {
-        return vec![Frac::ZERO; pre.len()];
+        return smallvec::smallvec![Frac::ZERO; pre.len()];
     }
-    let need: Vec<Frac> = pre
+    let need: PerMetal<Frac> = pre
         .iter()
         .zip(targets)
         .map(|(p, t)| Frac::int(*t as i64) - *p)
@@ -648,7 +652,7 @@ fn bonds_per_metal(pre: &[Frac], targets: &[u8], total: u32) -> Vec<Frac> {
     if exact {
         need
     } else {
-        vec![Frac::new(2 * total as i64, n); pre.len()]
+        smallvec::smallvec![Frac::new(2 * total as i64, n); pre.len()]
     }
 }
 

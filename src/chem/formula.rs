@@ -443,10 +443,10 @@ fn salt_units(t: &str, start: usize) -> Option<Vec<SaltUnit<'_>>> {
         // a known counter-ion without brackets, with a count: "K2", "(BF4)2", "Cl3"
         let rest = &t[pos..];
         let (name, q) = CATIONS.iter().chain(ANIONS).find(|(n, _)| {
-            rest.starts_with(n)
+            opens_with(rest, n)
                 || rest
                     .strip_prefix('(')
-                    .is_some_and(|r| r.starts_with(n) && r[n.len()..].starts_with(')'))
+                    .is_some_and(|r| opens_with(r, n) && r[n.len()..].starts_with(')'))
         })?;
         let paren = rest.starts_with('(');
         let len = name.len() + if paren { 2 } else { 0 };
@@ -490,7 +490,10 @@ fn unbracketed_salt(body: &str, complex: &Complex, lookup: &dyn LigandLookup) ->
         .trim_end()
         .trim_end_matches(|c: char| c.is_ascii_digit())
         .trim_end_matches(')');
-    if !ANIONS.iter().any(|(n, _)| tail.ends_with(n)) {
+    if !ANIONS
+        .iter()
+        .any(|(n, _)| tail.as_bytes().last() == n.as_bytes().last() && tail.ends_with(n))
+    {
         return None;
     }
     let report = super::count::count(complex);
@@ -862,8 +865,6 @@ fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
         return (Cow::Borrowed(input), None);
     }
     use unicode_normalization::UnicodeNormalization;
-    const SUPER: &str = "⁰¹²³⁴⁵⁶⁷⁸⁹";
-    const SUB: &str = "₀₁₂₃₄₅₆₇₈₉";
     let mut text = String::with_capacity(input.len());
     let mut cols = Vec::with_capacity(input.len());
     let mut in_super = false;
@@ -895,25 +896,29 @@ fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
         ) {
             continue;
         }
+        // most of a pasted formula is plain ASCII: copied as it is
+        if c.is_ascii() && c != '\t' {
+            label_run = label_run && c.is_ascii_digit();
+            in_super = false;
+            text.push(c);
+            cols.push(col);
+            continue;
+        }
+        let sup = superscript_digit(c);
+        let small = sup.or_else(|| subscript_digit(c));
         // superscript and subscript digits right after η, κ or μ are the prefix's number
         // ("η⁶-C₆H₆", "κ²-N,N", "μ₃-CO")
-        let label_digit = (SUPER.contains(c) || SUB.contains(c)) && label_run;
+        let label_digit = small.is_some() && label_run;
         // the run of a label's digits: η, κ or μ, then digits
-        label_run = matches!(c, 'η' | 'κ' | 'μ' | 'µ')
-            || (label_run && (label_digit || c.is_ascii_digit()));
-        if label_digit {
-            let i = SUPER
-                .chars()
-                .position(|x| x == c)
-                .or_else(|| SUB.chars().position(|x| x == c))
-                .unwrap_or(0);
-            text.push(char::from(b'0' + i as u8));
+        label_run = matches!(c, 'η' | 'κ' | 'μ' | 'µ') || (label_run && label_digit);
+        if let (true, Some(i)) = (label_digit, small) {
+            text.push(char::from(b'0' + i));
             cols.push(col);
             continue;
         }
         // superscripts are a charge ("Fe(CO)₄²⁻"): they become "^2-", which cannot be read as a
         // multiplier
-        let superscript = c == '⁺' || c == '⁻' || SUPER.contains(c);
+        let superscript = c == '⁺' || c == '⁻' || sup.is_some();
         if superscript && !in_super {
             text.push('^');
             cols.push(col);
@@ -928,10 +933,8 @@ fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
             '∗' | '⁎' | '﹡' | '＊' => '*',
             '\t' | '\u{a0}' | '\u{2000}'..='\u{2008}' | '\u{205f}' | '\u{3000}' => ' ',
             c => {
-                if let Some(i) = SUPER.chars().position(|s| s == c) {
-                    char::from(b'0' + i as u8)
-                } else if let Some(i) = SUB.chars().position(|s| s == c) {
-                    char::from(b'0' + i as u8)
+                if let Some(i) = small {
+                    char::from(b'0' + i)
                 } else if c.is_ascii() || matches!(c, 'η' | 'κ' | 'μ' | 'σ' | 'π' | 'Δ' | 'Λ' | '·')
                 {
                     c
@@ -982,6 +985,26 @@ fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
     (Cow::Owned(text), Some(cols))
 }
 
+/// The digit a superscript digit stands for.
+fn superscript_digit(c: char) -> Option<u8> {
+    match c {
+        '⁰' => Some(0),
+        '¹' => Some(1),
+        '²' => Some(2),
+        '³' => Some(3),
+        '⁴'..='⁹' => Some((c as u32 - 0x2070) as u8),
+        _ => None,
+    }
+}
+
+/// The digit a subscript digit stands for.
+fn subscript_digit(c: char) -> Option<u8> {
+    match c {
+        '₀'..='₉' => Some((c as u32 - '₀' as u32) as u8),
+        _ => None,
+    }
+}
+
 /// A parsed group before the metals and ligands are laid out.
 #[derive(Debug, Clone, Default)]
 struct Group {
@@ -1015,11 +1038,14 @@ impl Group {
 fn flatten(group: Group, complex: &mut Complex) {
     if group.metal_total() == 1 {
         if let Some(element) = group.first_metal() {
-            let mut ligands = Vec::new();
-            group.drain_ligands(&mut ligands);
-            let (bridges, own): (Vec<_>, Vec<_>) =
-                ligands.into_iter().partition(|b| b.mode().bridges > 1);
-            complex.shared.extend(bridges);
+            let mut own = Vec::with_capacity(8);
+            group.drain_ligands(&mut own);
+            if own.iter().any(|b| b.mode().bridges > 1) {
+                let (bridges, terminal): (Vec<_>, Vec<_>) =
+                    own.into_iter().partition(|b| b.mode().bridges > 1);
+                complex.shared.extend(bridges);
+                own = terminal;
+            }
             complex.sites.push(MetalSite {
                 element,
                 ligands: own,
@@ -1424,7 +1450,7 @@ impl<'a> Parser<'a> {
         while let Some((name, q)) = CATIONS
             .iter()
             .filter(|(n, _)| *n != "H")
-            .find(|(n, _)| t[at..].starts_with(n))
+            .find(|(n, _)| opens_with(&t[at..], n))
         {
             let after = at + name.len();
             // "K" must not be the start of a longer metal symbol or ligand ("Ir", "Kr")
@@ -1589,7 +1615,7 @@ impl<'a> Parser<'a> {
 
     /// Index of the bracket closing the one at `open`.
     fn matching(&self, open: usize, end: usize) -> Result<usize, ParseError> {
-        let mut stack: Vec<u8> = Vec::new();
+        let mut stack: smallvec::SmallVec<[u8; 24]> = smallvec::SmallVec::new();
         for (i, &b) in self.text.as_bytes()[open..end].iter().enumerate() {
             match b {
                 b'(' | b'[' => stack.push(b),
@@ -2021,6 +2047,12 @@ pub(crate) fn charge_value(text: &str) -> Option<i32> {
 
 /// Read `text` as a run of counter-ions from `table`, each optionally in parentheses and with a
 /// count: "Cl3", "(PF6)2", "K3", "NBu4". None when anything else is in the way.
+/// `text.starts_with(name)`, looking at the first byte before comparing the rest: the ion
+/// tables are scanned for every formula.
+fn opens_with(text: &str, name: &str) -> bool {
+    text.as_bytes().first() == name.as_bytes().first() && text.starts_with(name)
+}
+
 fn ion_list(text: &str, table: &[(&str, i32)]) -> Option<Vec<(String, i32)>> {
     let mut out = Vec::new();
     let mut rest = text.trim();
@@ -2029,7 +2061,7 @@ fn ion_list(text: &str, table: &[(&str, i32)]) -> Option<Vec<(String, i32)>> {
             let close = r.find(')')?;
             (&r[..close], &r[close + 1..])
         } else {
-            let (name, _) = table.iter().find(|(n, _)| rest.starts_with(n))?;
+            let (name, _) = table.iter().find(|(n, _)| opens_with(rest, n))?;
             (&rest[..name.len()], &rest[name.len()..])
         };
         let (name, q) = table.iter().find(|(n, _)| *n == inner)?;

@@ -627,6 +627,11 @@ fn upper_first(s: &str) -> String {
 pub struct Composition(Vec<(u8, u32)>);
 
 impl Composition {
+    /// Room for `n` elements without growing (a complex rarely holds more than eight).
+    pub fn with_capacity(n: usize) -> Composition {
+        Composition(Vec::with_capacity(n))
+    }
+
     pub fn add(&mut self, z: u8, n: u32) {
         if n == 0 {
             return;

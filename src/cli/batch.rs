@@ -22,7 +22,8 @@ const EXCERPT: usize = 80;
 
 /// One line read from the batch input.
 enum Line {
-    Text(String),
+    /// A formula: its byte range in its chunk's text (one buffer per chunk, not one per line).
+    Text(std::ops::Range<usize>),
     /// Not UTF-8: the lossy text for the message.
     NotUtf8(String),
     /// Over `MAX_LINE` bytes: its length and its first bytes.
@@ -173,10 +174,10 @@ struct Counter<'a> {
 }
 
 impl Counter<'_> {
-    fn line(&self, line: &Line, number: Option<usize>, done: &mut Done) {
+    fn line(&self, text: &str, line: &Line, number: Option<usize>, done: &mut Done) {
         let place = || number.map(|n| format!("line {n}: ")).unwrap_or_default();
         match line {
-            Line::Text(t) => self.one(t, number, done),
+            Line::Text(r) => self.one(text.get(r.clone()).unwrap_or_default(), number, done),
             Line::NotUtf8(lossy) => {
                 let shown = excerpt(lossy.trim());
                 done.errors.push(format!(
@@ -257,10 +258,10 @@ impl Counter<'_> {
         }
     }
 
-    fn run(&self, lines: &[(usize, Line)]) -> Done {
+    fn run(&self, chunk: &Chunk) -> Done {
         let mut done = Done::default();
-        for (n, l) in lines {
-            self.line(l, Some(*n), &mut done);
+        for (n, l) in &chunk.lines {
+            self.line(&chunk.text, l, Some(*n), &mut done);
         }
         done
     }
@@ -297,7 +298,7 @@ fn pipeline(
 ) -> Result<bool, CliError> {
     use std::sync::mpsc;
     use std::sync::Mutex;
-    let (work_tx, work_rx) = mpsc::sync_channel::<(usize, Vec<(usize, Line)>)>(threads * 2);
+    let (work_tx, work_rx) = mpsc::sync_channel::<(usize, Chunk)>(threads * 2);
     let (done_tx, done_rx) = mpsc::sync_channel::<(usize, Done)>(threads * 2);
     let work_rx = Mutex::new(work_rx);
     // set when the output fails (a closed pipe): the reader stops, the workers run dry
@@ -361,15 +362,31 @@ fn pipeline(
     })
 }
 
+/// Numbered lines handed to a worker, with the text of their formulas in one buffer.
+#[derive(Default)]
+struct Chunk {
+    text: String,
+    lines: Vec<(usize, Line)>,
+}
+
+impl Chunk {
+    fn new() -> Chunk {
+        Chunk {
+            text: String::with_capacity(CHUNK * 32),
+            lines: Vec::with_capacity(CHUNK),
+        }
+    }
+}
+
 /// Read the batch input into numbered chunks of lines and hand each to `send` (false: stop).
 fn read_chunks(
     reader: &mut (dyn BufRead + Send),
-    mut send: impl FnMut(usize, Vec<(usize, Line)>) -> bool,
+    mut send: impl FnMut(usize, Chunk) -> bool,
 ) -> Result<(), CliError> {
     let mut raw = Vec::with_capacity(256);
     let mut number = 0usize;
     let mut seq = 0usize;
-    let mut lines: Vec<(usize, Line)> = Vec::with_capacity(CHUNK);
+    let mut chunk = Chunk::new();
     loop {
         let got = read_bounded(reader, &mut raw, MAX_LINE).context("reading the batch input")?;
         let end = got.is_none();
@@ -387,20 +404,21 @@ fn read_chunks(
                 match std::str::from_utf8(bytes) {
                     Ok(t) => {
                         let f = t.trim();
-                        (!f.is_empty() && !f.starts_with('#')).then(|| Line::Text(f.to_string()))
+                        (!f.is_empty() && !f.starts_with('#')).then(|| {
+                            let at = chunk.text.len();
+                            chunk.text.push_str(f);
+                            Line::Text(at..chunk.text.len())
+                        })
                     }
                     Err(_) => Some(Line::NotUtf8(String::from_utf8_lossy(bytes).into_owned())),
                 }
             };
             if let Some(l) = line {
-                lines.push((number, l));
+                chunk.lines.push((number, l));
             }
         }
-        if lines.len() >= CHUNK || (end && !lines.is_empty()) {
-            if !send(
-                seq,
-                std::mem::replace(&mut lines, Vec::with_capacity(CHUNK)),
-            ) {
+        if chunk.lines.len() >= CHUNK || (end && !chunk.lines.is_empty()) {
+            if !send(seq, std::mem::replace(&mut chunk, Chunk::new())) {
                 return Ok(());
             }
             seq += 1;
@@ -431,7 +449,7 @@ pub fn count(args: &CountArgs, ascii: bool) -> Outcome {
     let mut any_rejected = false;
     for f in &args.formulas {
         let mut done = Done::default();
-        counter.line(&Line::Text(f.clone()), None, &mut done);
+        counter.line(f, &Line::Text(0..f.len()), None, &mut done);
         any_rejected |= emit(done, &mut out)?;
     }
     if let Some(path) = &args.batch {

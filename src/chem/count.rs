@@ -354,7 +354,7 @@ pub fn count(complex: &Complex) -> Report {
     let share = Frac::new(1, n);
     let charge_share = Frac::new(complex.charge as i64, n);
 
-    let tallies: PerMetal<Tally> = complex
+    let tallies: Vec<Tally> = complex
         .sites
         .iter()
         .map(|site| {

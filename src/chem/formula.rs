@@ -1134,6 +1134,7 @@ impl<'a> Parser<'a> {
                         .iter()
                         .find(|p| {
                             rest.len() > p.len()
+                                && rest.as_bytes()[0].eq_ignore_ascii_case(&p.as_bytes()[0])
                                 && rest
                                     .get(..p.len())
                                     .is_some_and(|h| h.eq_ignore_ascii_case(p))

@@ -30,7 +30,7 @@ use std::panic::{catch_unwind, AssertUnwindSafe};
 /// It rises as the reader learns to accept pasted text: when a change makes more lines pass,
 /// raise it to the new number (the test prints it). It must never be lowered: a lower count
 /// means text that used to be read correctly no longer is.
-const MIN_PASSING: usize = 534;
+const MIN_PASSING: usize = 554;
 
 /// The fewest data lines the corpus may have.
 const MIN_LINES: usize = 250;

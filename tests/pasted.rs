@@ -346,3 +346,87 @@ fn an_adduct_with_no_metal_on_either_side_is_refused_not_looped() {
         assert!(parse(f, cat()).is_err(), "{f}");
     }
 }
+
+fn notes_of(f: &str) -> Vec<String> {
+    read(f).1.notes
+}
+
+#[test]
+fn halometallate_acids_are_acids_and_carbonyl_hydrides_stay_hydrides() {
+    // H2PtCl6 is chloroplatinic acid, Pt(IV) d6; HAuCl4 is Au(III) d8; HCo(CO)4 is a Co(I)
+    // hydride (Greenwood & Earnshaw, Chemistry of the Elements, 2nd ed., 1997, ch. 25-28)
+    assert_eq!(counts("H2PtCl6"), (18, 4, 6));
+    assert_eq!(counts("H₂PtCl₆·6H₂O"), (18, 4, 6));
+    assert_eq!(counts("HAuCl4·3H2O"), (16, 3, 8));
+    assert!(notes_of("H2PtCl6")
+        .iter()
+        .any(|n| n.contains("acid") && n.contains("H2[PtCl6]")));
+    assert_eq!(counts("HCo(CO)4"), (18, 1, 8));
+    assert!(!notes_of("HCo(CO)4").iter().any(|n| n.contains("acid")));
+    // written after the metal, the hydrogens are hydrides as typed
+    assert_eq!(counts("PtH2Cl6").1, 8);
+}
+
+#[test]
+fn a_charge_split_by_a_pdf_is_one_charge() {
+    // "]²⁺" copied as "]2 +": [Ru(bpy)3]2+, Ru(II) d6 (Juris et al., Coord. Chem. Rev. 1988,
+    // 84, 85)
+    assert_eq!(counts("[Ru(bpy)3]2 +"), (18, 2, 6));
+    assert_eq!(counts("[Ru(bpy)3] 2+"), (18, 2, 6));
+    // a bracketed dimer with no sign stays a dimer
+    assert_eq!(read("[CpFe(CO)2]2").1.metals.len(), 2);
+}
+
+#[test]
+fn two_complex_ions_take_usual_oxidation_states_and_leave_lattice_water_out() {
+    use nonet::chem::parse_ions;
+    // [Co(NH3)6][CuCl5]: Co(III) and a trigonal-bipyramidal Cu(II) pentachloride (Raymond,
+    // Meek & Ibers, Inorg. Chem. 1968, 7, 1111; from memory)
+    let ions = parse_ions("[Co(NH₃)₆][CuCl₅]", cat()).expect("two ions");
+    let os: Vec<_> = ions
+        .iter()
+        .map(|c| count(c).metals[0].oxidation_state)
+        .collect();
+    assert_eq!(os, vec![Frac::int(3), Frac::int(2)]);
+    // the same salt with lattice water after the dot (Raymond, Corfield & Ibers, Inorg.
+    // Chem. 1968, 7, 1362; from memory): Cr(III) and [Ni(CN)5]3-
+    let ions = parse_ions("[Cr(en)₃][Ni(CN)₅]·1.5H₂O", cat()).expect("two ions");
+    assert_eq!(ions.len(), 2);
+    let r = count(&ions[1]);
+    assert_eq!(r.metals[0].oxidation_state, Frac::int(2));
+    assert!(r.notes.iter().any(|n| n.contains("lattice solvent")));
+}
+
+#[test]
+fn braces_group_fragments_but_keep_smiles() {
+    // [{Rh(cod)}2(μ-Cl)2], Rh(I) d8 16 e (Crabtree, 6th ed., 2014, ch. 2)
+    let (f, r) = read("[{Rh(cod)}₂(μ-Cl)₂]");
+    assert_eq!(f, read("[Rh(cod)]2(μ-Cl)2").0);
+    assert_eq!(r.metals[0].electron_count, Frac::int(16));
+    // a ligand in braces is a group too (photoredox Ir(III), 18 e; Lowry et al., Chem. Mater.
+    // 2005, 17, 5712; from memory)
+    assert_eq!(counts("[Ir{dF(CF₃)ppy}₂(dtbbpy)]PF₆"), (18, 3, 6));
+    // SMILES in braces is still SMILES: ethylene written as C=C
+    let (f, _) = read("Ni(cod)({C=C})");
+    assert!(f.contains("C2H4"), "{f}");
+}
+
+#[test]
+fn isotope_labels_fragment_names_and_hyphenated_substituents() {
+    // pertechnetate, Tc(VII) d0 (Greenwood & Earnshaw, 1997, ch. 24)
+    assert_eq!(counts("Na[⁹⁹ᵐTcO₄]"), (16, 7, 0));
+    assert!(notes_of("Na[⁹⁹ᵐTcO₄]")
+        .iter()
+        .any(|n| n.contains("⁹⁹ᵐTc") && n.contains("isotope")));
+    // Fp = CpFe(CO)2: FpMe is Fe(II) d6, 18 e (Crabtree, 6th ed., 2014, ch. 2)
+    assert_eq!(counts("FpMe"), (18, 2, 6));
+    assert_eq!(read("FpMe").0, read("CpFe(CO)2Me").0);
+    assert_eq!(read("Fp2").1.metals.len(), 2);
+    // a hyphen between an atom and its substituents: Pd(PtBu3)2, Pd(0) 14 e (Hartwig,
+    // Organotransition Metal Chemistry, 2010, ch. 1)
+    assert_eq!(read("Pd(P‑tBu₃)₂").0, read("Pd(PtBu3)2").0);
+    assert_eq!(
+        read("[Me₂Si(C₅Me₄)(N-tBu)]TiCl₂").0,
+        read("Me2Si(C5Me4)(NtBu)TiCl2").0
+    );
+}

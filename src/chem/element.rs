@@ -125,6 +125,42 @@ pub static ELEMENTS: &[Element] = &[
     f!("Lr", "lawrencium", 103, 7, 17),
 ];
 
+/// The oxidation states a metal commonly takes in its coordination and organometallic
+/// compounds (common practice, as tabulated in Greenwood & Earnshaw, *Chemistry of the
+/// Elements*, 2nd ed., 1997; the low states of carbonyl and phosphine chemistry included).
+/// Used only to choose between readings a formula leaves open, never to refuse one; empty for
+/// metals not listed (the f block).
+pub fn common_oxidation_states(symbol: &str) -> &'static [i8] {
+    match symbol {
+        "Sc" | "Y" | "La" => &[3],
+        "Ti" => &[2, 3, 4],
+        "V" => &[2, 3, 4, 5],
+        "Cr" => &[0, 2, 3, 6],
+        "Mn" => &[1, 2, 3, 4, 7],
+        "Fe" => &[0, 2, 3],
+        "Co" => &[1, 2, 3],
+        "Ni" => &[0, 2],
+        "Cu" => &[1, 2],
+        "Zn" | "Cd" => &[2],
+        "Zr" => &[2, 4],
+        "Nb" | "Ta" => &[3, 5],
+        "Mo" => &[0, 2, 3, 4, 5, 6],
+        "Tc" => &[1, 4, 5, 7],
+        "Ru" => &[0, 2, 3, 4],
+        "Rh" => &[1, 3],
+        "Pd" | "Pt" => &[0, 2, 4],
+        "Ag" => &[1],
+        "Hf" => &[4],
+        "W" => &[0, 2, 4, 6],
+        "Re" => &[1, 3, 4, 5, 7],
+        "Os" => &[0, 2, 3, 4, 6, 8],
+        "Ir" => &[1, 3, 4],
+        "Au" => &[1, 3],
+        "Hg" => &[1, 2],
+        _ => &[],
+    }
+}
+
 /// Look a metal up by its exact (case-sensitive) symbol.
 pub fn by_symbol(symbol: &str) -> Option<&'static Element> {
     let code = symbol_code(symbol.as_bytes())?;

@@ -100,6 +100,106 @@ impl fmt::Display for ParseError {
 
 impl std::error::Error for ParseError {}
 
+/// The text with braces that group rather than hold SMILES turned into square brackets: a
+/// metal fragment ("{Rh(cod)}2", "{Cp*IrCl}") or a catalogue ligand ("{dF(CF3)ppy}2"). None
+/// when no brace is such a group. Brackets are one byte either way, so columns keep.
+fn curly_groups(text: &str, lookup: &dyn LigandLookup) -> Option<String> {
+    if !text.contains('{') {
+        return None;
+    }
+    let mut out = text.as_bytes().to_vec();
+    let mut changed = false;
+    let mut from = 0;
+    while let Some(open) = text[from..].find('{').map(|i| i + from) {
+        let Some(close) = text[open..].find('}').map(|i| i + open) else {
+            break;
+        };
+        let inner = &text[open + 1..close];
+        // a metal fragment has a metal's symbol and none of SMILES' bond or atom marks
+        let groups = lookup.exact(inner).is_some()
+            || (has_metal_token(inner) && !inner.contains(['=', '#', '@', '[', '/', '\\']));
+        if groups && !inner.contains('{') {
+            out[open] = b'[';
+            out[close] = b']';
+            changed = true;
+        }
+        from = close + 1;
+    }
+    if !changed {
+        return None;
+    }
+    String::from_utf8(out).ok()
+}
+
+/// Metal fragments the trade writes by a short name (common practice): Fp for CpFe(CO)2 and
+/// Fp* with Cp*.
+const FRAGMENTS: &[(&str, &str)] = &[("Fp*", "[Cp*Fe(CO)2]"), ("Fp", "[CpFe(CO)2]")];
+
+/// The text with each fragment's short name written out, the column of every character of the
+/// result, and the names expanded; None when there is none. A name counts only as a whole
+/// token: at the start or after a bracket or space, and not followed by a small letter.
+#[allow(clippy::type_complexity)]
+fn expand_fragments(
+    text: &str,
+    cols: Option<&[usize]>,
+) -> Option<(String, Vec<usize>, Vec<(&'static str, &'static str)>)> {
+    if !text.contains("Fp") {
+        return None;
+    }
+    let mut out = String::with_capacity(text.len() + 16);
+    let mut out_cols = Vec::with_capacity(text.len() + 16);
+    let mut names = Vec::new();
+    let col_of = |i: usize| cols.and_then(|c| c.get(i).copied()).unwrap_or(i);
+    let mut prev: Option<char> = None;
+    let mut chars = text.char_indices().enumerate().peekable();
+    while let Some((ci, (bi, c))) = chars.next() {
+        let at_token = prev.is_none_or(|p| matches!(p, '[' | '(' | ' ' | '{' | '·'));
+        let hit = at_token
+            .then(|| {
+                FRAGMENTS.iter().find(|(short, _)| {
+                    text[bi..].starts_with(short)
+                        && !text[bi + short.len()..].starts_with(|x: char| x.is_ascii_lowercase())
+                })
+            })
+            .flatten();
+        if let Some(&(short, long)) = hit {
+            out.push_str(long);
+            out_cols.extend(std::iter::repeat_n(col_of(ci), long.chars().count()));
+            if !names.contains(&(short, long)) {
+                names.push((short, long));
+            }
+            // skip the rest of the short name
+            for _ in 1..short.chars().count() {
+                chars.next();
+            }
+            prev = short.chars().last();
+            continue;
+        }
+        out.push(c);
+        out_cols.push(col_of(ci));
+        prev = Some(c);
+    }
+    if names.is_empty() {
+        return None;
+    }
+    Some((out, out_cols, names))
+}
+
+/// Where lattice water or solvent starts: the first centred or plain dot outside SMILES
+/// braces (a dot inside braces is a bond).
+fn top_level_dot(text: &str) -> Option<usize> {
+    let mut depth = 0i32;
+    text.char_indices().find_map(|(i, c)| {
+        match c {
+            '{' => depth += 1,
+            '}' => depth -= 1,
+            '·' | '.' if depth == 0 => return Some(i),
+            _ => {}
+        }
+        None
+    })
+}
+
 /// Two-letter main-group metals: typed as the central atom they split into a one-letter
 /// symbol and a stray letter ("Na" as N + a).
 const MAIN_GROUP_METALS: &[&str] = &[
@@ -138,18 +238,19 @@ pub fn parse(input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseErr
         ));
     }
     let (text, cols) = normalize(input);
+    // braces a paper uses as a third kind of bracket ("[{Rh(cod)}2(μ-Cl)2]")
+    let (text, braces) = match curly_groups(&text, lookup) {
+        Some(t) => (Cow::Owned(t), true),
+        None => (text, false),
+    };
+    // the trade's names for metal fragments ("FpMe" is CpFe(CO)2Me)
+    let (text, cols, fragments) = match expand_fragments(&text, cols.as_deref()) {
+        Some((t, c, names)) => (Cow::Owned(t), Some(c), names),
+        None => (text, cols, Vec::new()),
+    };
     // lattice water or solvent after a centred or plain dot ("K[PtCl3(C2H4)]·H2O") is not
     // part of the complex, unless the metal needs it; a dot inside SMILES braces is a bond
-    let mut depth = 0i32;
-    let dot = text.char_indices().find_map(|(i, c)| {
-        match c {
-            '{' => depth += 1,
-            '}' => depth -= 1,
-            '·' | '.' if depth == 0 => return Some(i),
-            _ => {}
-        }
-        None
-    });
+    let dot = top_level_dot(&text);
     let (body, solvent) = match dot {
         Some(i) => (
             &text[..i],
@@ -206,6 +307,9 @@ pub fn parse(input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseErr
     if let Some(better) = unbracketed_salt(body, &complex, lookup) {
         complex = better;
     }
+    if let Some(acid) = unbracketed_acid(body, &complex, lookup) {
+        complex = acid;
+    }
     for site in &complex.sites {
         let units: u32 = site.ligands.iter().map(|b| b.count).sum();
         if units > MAX_PER_METAL {
@@ -217,6 +321,30 @@ pub fn parse(input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseErr
     }
     if let Some(s) = solvent.filter(|s| !s.is_empty()) {
         solvate(&mut complex, s, lookup);
+    }
+    for (short, long) in fragments {
+        complex.notes.push(format!(
+            "{short} is the fragment {long}, read as written out"
+        ));
+    }
+    for r in isotope_labels(input) {
+        let mass: String = input.chars().skip(r.start).take(r.len()).collect();
+        let mut symbol = input.chars().skip(r.end);
+        let element: String = symbol
+            .next()
+            .into_iter()
+            .chain(symbol.next().filter(char::is_ascii_lowercase))
+            .collect();
+        complex.notes.push(format!(
+            "{mass}{element}: {mass} is a mass number, an isotope label; counted as {element}"
+        ));
+    }
+    if braces {
+        complex.notes.push(
+            "braces around a metal fragment or a catalogue ligand read as brackets; SMILES in \
+             braces is read as SMILES"
+                .into(),
+        );
     }
     Ok(complex)
 }
@@ -482,7 +610,9 @@ fn salt_units(t: &str, start: usize) -> Option<Vec<SaltUnit<'_>>> {
 /// Re-read a formula whose trailing anions would put its single metal above 18 e as a
 /// bracketed ion with those anions outside; None when that does not help.
 fn unbracketed_salt(body: &str, complex: &Complex, lookup: &dyn LigandLookup) -> Option<Complex> {
-    if complex.metal_count() != 1 || body.contains('[') {
+    // an ion already in brackets says where the counter-ions are; brackets around a ligand
+    // ("Ir[dF(CF3)ppy]2(dtbbpy)PF6") do not
+    if complex.metal_count() != 1 || body.trim_start().starts_with('[') {
         return None;
     }
     // only when the text ends with a counter-anion's name: the count below is not free
@@ -530,6 +660,57 @@ fn unbracketed_salt(body: &str, complex: &Complex, lookup: &dyn LigandLookup) ->
         })
 }
 
+/// Anions that make a halometallate or oxometallate acid when protons are written before the
+/// metal: with only these on the metal, "H2PtCl6" is chloroplatinic acid, not a
+/// dihydride (common practice; a metal hydride carries soft or π-acceptor ligands, as in
+/// HCo(CO)4 and HMn(CO)5).
+const ACID_ANIONS: &[&str] = &["F", "Cl", "Br", "I", "O", "OH", "CN", "NCS", "SCN", "N3"];
+
+/// Re-read "H2PtCl6", "HAuCl4", "H2IrCl6" as acids, H2[PtCl6]: the hydrogens written before a
+/// metal that carries nothing but halide, oxo, hydroxo or pseudohalide ligands are protons.
+/// None when the formula is not such an acid.
+fn unbracketed_acid(body: &str, complex: &Complex, lookup: &dyn LigandLookup) -> Option<Complex> {
+    let t = body.trim();
+    let after_h = t.strip_prefix('H')?;
+    let digits = after_h.bytes().take_while(u8::is_ascii_digit).count();
+    let rest = &after_h[digits..];
+    if complex.metal_count() != 1 || element::symbol_prefix(rest).is_none() {
+        return None;
+    }
+    let mut hydrides = 0;
+    for (_, b) in complex.all_ligands() {
+        match b.ligand.key.as_str() {
+            "H" => hydrides += b.count,
+            k if ACID_ANIONS.contains(&k) => {}
+            _ => return None,
+        }
+    }
+    let protons: u32 = if digits == 0 {
+        1
+    } else {
+        after_h[..digits].parse().ok()?
+    };
+    // every hydride must be one of those written in front
+    if hydrides != protons {
+        return None;
+    }
+    let text = format!("H{}[{rest}]", &after_h[..digits]);
+    let mut c = parse(&text, lookup).ok()?;
+    let r = super::count::count(&c);
+    if r.impossible().is_some() {
+        return None;
+    }
+    c.notes.push(format!(
+        "the H{} before the metal read as the acid's proton{}: {text}; write the hydride{} \
+         after the metal for a hydride complex",
+        &after_h[..digits],
+        if protons == 1 { "" } else { "s" },
+        if protons == 1 { "" } else { "s" },
+    ));
+    c.stereo = complex.stereo.clone();
+    Some(c)
+}
+
 /// The ions of a formula: one complex, or both complex ions of a salt where each holds a
 /// metal ("[Pt(NH3)4][PtCl4]", Magnus's green salt; "[Cp2Co][Co(CO)4]"), each with its charge.
 /// Charges come from what is written; when neither ion's charge is written, the split that
@@ -541,7 +722,14 @@ pub fn parse_ions(input: &str, lookup: &dyn LigandLookup) -> Result<Vec<Complex>
         Err(e) => return Err(e),
     };
     let (text, _) = normalize(input);
-    let t = text.trim();
+    // lattice solvent after a dot ("·1.5H2O") stays out of both ions
+    let (t, solvent) = match top_level_dot(&text) {
+        Some(i) => (
+            text[..i].trim(),
+            Some(text[i..].trim_start_matches(['·', '.']).trim()),
+        ),
+        None => (text.trim(), None),
+    };
     // the ions side by side, and what the known counter-ions among them give
     let Some(units) = salt_units(t, 0) else {
         return Err(e);
@@ -608,8 +796,20 @@ pub fn parse_ions(input: &str, lookup: &dyn LigandLookup) -> Result<Vec<Complex>
                             .to_f64()
                             .abs()
                     };
+                    // a metal outside its usual oxidation states ([CuCl5]2- as Cu(III)) is
+                    // the less likely reading
+                    let unusual = |m: &super::count::MetalReport| {
+                        let usual = element::common_oxidation_states(m.symbol);
+                        match m.oxidation_state.as_int() {
+                            Some(os) if usual.iter().any(|&u| i64::from(u) == os) => 0.0,
+                            _ if usual.is_empty() => 0.0,
+                            _ => 0.75,
+                        }
+                    };
                     let score = off(m1)
                         + off(m2)
+                        + unusual(m1)
+                        + unusual(m2)
                         + if m1.oxidation_state == m2.oxidation_state {
                             0.0
                         } else {
@@ -639,11 +839,15 @@ pub fn parse_ions(input: &str, lookup: &dyn LigandLookup) -> Result<Vec<Complex>
         c.notes.push(format!(
             "the {role} of a salt of two complex ions, counted on its own"
         ));
+        if let Some(sol) = solvent.filter(|s| !s.is_empty()) {
+            c.notes
+                .push(format!("'{sol}' after the dot: lattice solvent, left out"));
+        }
         if guessed {
             c.notes.push(
                 "charges not written: taken so that each metal is nearest its electron target \
-                 (then the same oxidation state for both); write them ([A]+[B]-) to choose \
-                 another split"
+                 and in a usual oxidation state (then the same state for both); write them \
+                 ([A]+[B]-) to choose another split"
                     .into(),
             );
         }
@@ -740,6 +944,9 @@ fn solvate(complex: &mut Complex, s: &str, lookup: &dyn LigandLookup) {
 /// Counter-cations written before a bracketed complex ion (`K3[Fe(CN)6]`), with their charges.
 const CATIONS: &[(&str, i32)] = &[
     ("K(18-crown-6)", 1),
+    ("K(15-crown-5)2", 1),
+    ("K(15-c-5)2", 1),
+    ("Na(15-crown-5)", 1),
     ("K(18-c-6)", 1),
     ("K(crypt-222)", 1),
     ("K(2.2.2-crypt)", 1),
@@ -870,11 +1077,20 @@ fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
     let mut in_super = false;
     let mut in_smiles = false;
     let mut label_run = false;
+    let isotopes = isotope_labels(input);
     for (col, c) in input.chars().enumerate() {
+        // a mass number written before an element ("⁹⁹ᵐTc") labels the isotope
+        if isotopes.iter().any(|r| r.contains(&col)) {
+            continue;
+        }
         // SMILES in braces is copied as it is: its '=' and '#' are bonds
         if c == '{' || c == '}' || in_smiles {
             in_smiles = (in_smiles || c == '{') && c != '}';
-            text.push(c);
+            // SMILES has no subscripts: braces a paper uses as brackets may hold them
+            match subscript_digit(c) {
+                Some(d) => text.push(char::from(b'0' + d)),
+                None => text.push(c),
+            }
             cols.push(col);
             continue;
         }
@@ -983,6 +1199,38 @@ fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
         return (Cow::Owned(kept), Some(kept_cols));
     }
     (Cow::Owned(text), Some(cols))
+}
+
+/// Mass numbers written as superscripts before an element symbol ("⁹⁹ᵐTc", "¹³CO", "[¹⁸⁶Re]"):
+/// the character ranges of each label, a run of superscript digits (with ᵐ for a metastable
+/// state) at the start of a token and right before a capital letter.
+fn isotope_labels(input: &str) -> Vec<std::ops::Range<usize>> {
+    let chars: Vec<char> = input.chars().collect();
+    let mut out = Vec::new();
+    let mut i = 0;
+    while i < chars.len() {
+        let starts_token = i == 0
+            || matches!(
+                chars[i - 1],
+                '[' | '(' | ' ' | '-' | '{' | '·' | '\u{2010}'..='\u{2015}'
+            );
+        if starts_token && superscript_digit(chars[i]).is_some() {
+            let mut j = i;
+            while j < chars.len() && superscript_digit(chars[j]).is_some() {
+                j += 1;
+            }
+            if chars.get(j) == Some(&'ᵐ') {
+                j += 1;
+            }
+            if chars.get(j).is_some_and(char::is_ascii_uppercase) {
+                out.push(i..j);
+                i = j;
+                continue;
+            }
+        }
+        i += 1;
+    }
+    out
 }
 
 /// The digit a superscript digit stands for.
@@ -1229,8 +1477,18 @@ impl<'a> Parser<'a> {
         if start <= from {
             return Err(self.error(from, 1, "a formula cannot start with its charge".into()));
         }
-        let before = t[..start].trim_end();
+        let mut before = t[..start].trim_end();
         let spaced = before.len() < start;
+        // a PDF splits "]²⁺" into "]2 +": the digits after the bracket are the charge's
+        let mut digits = digits;
+        if digits.is_empty() && spaced {
+            let run = before.bytes().rev().take_while(u8::is_ascii_digit).count();
+            let head = &before[..before.len() - run];
+            if run > 0 && head.ends_with(']') && head.len() > from {
+                digits = &before[head.len()..];
+                before = head;
+            }
+        }
         let after_word = digits.is_empty()
             && before
                 .chars()
@@ -1518,8 +1776,13 @@ impl<'a> Parser<'a> {
                     let open = *pos;
                     let close_at = self.matching(open, end)?;
                     let inner_start = open + 1;
+                    let inner = self.text[inner_start..close_at].trim();
                     let child = if c == b'(' {
                         self.paren_group(inner_start, close_at, depth)?
+                    } else if let Some(l) = self.dehyphenated(inner) {
+                        // a linked ligand in brackets, written with a hyphen a paper adds
+                        // ("[Me2Si(C5Me4)(N-tBu)]")
+                        Item::Ligand(BoundLigand::new(l.clone(), 0, 1))
                     } else {
                         let mut p = inner_start;
                         let g = self.sequence(&mut p, close_at, Some(b']'), depth + 1)?;
@@ -1663,6 +1926,17 @@ impl<'a> Parser<'a> {
     /// The contents of a parenthesised group: a catalogue entry (possibly with mode prefixes
     /// and bond marks: `(η5-C5H5)`, `(μ-η2:η2-PhCCPh)`, `(=CHPh)`), or else a fragment with its
     /// own metal.
+    /// The catalogue ligand a token names once the hyphens a paper puts between an atom and
+    /// its substituent are dropped ("P-tBu3" is PtBu3, "N-tBu" in a linked ligand); None
+    /// without a hyphen or without such a ligand.
+    fn dehyphenated(&self, token: &str) -> Option<&'a Arc<LigandDef>> {
+        if !token.contains('-') || token.contains(['μ', 'η', 'κ']) {
+            return None;
+        }
+        let joined: String = token.chars().filter(|&c| c != '-').collect();
+        self.lookup.exact(&joined)
+    }
+
     fn paren_group(&mut self, start: usize, end: usize, depth: usize) -> Result<Item, ParseError> {
         let raw = &self.text[start..end];
         let mut at = start + (raw.len() - raw.trim_start().len());
@@ -1684,7 +1958,11 @@ impl<'a> Parser<'a> {
                 content = &content[n..];
             }
         }
-        if let Some(l) = self.lookup.exact(content) {
+        if let Some(l) = self
+            .lookup
+            .exact(content)
+            .or_else(|| self.dehyphenated(content))
+        {
             return Ok(Item::Ligand(BoundLigand::new(l.clone(), 0, 1)));
         }
         // one or more mode prefixes: "μ-Cl", "η5-C5H5", "μ-η2:η2-PhCCPh"

@@ -780,3 +780,46 @@ fn user_ligand_with_bad_class_is_named_and_the_rest_of_its_file_loads() {
     assert!(cat.get("Qz3").is_none(), "the bad ligand is skipped");
     assert_eq!(cat.len(), bundled().len() + 2);
 }
+
+#[test]
+fn pincer_forms_name_each_other_with_different_charges() {
+    // a counterpart is the same ligand in its other protonation form: each names the other,
+    // and one of them carries one more X function (the deprotonated arm or amide; Gunanathan
+    // & Milstein, Chem. Rev. 2014, 114, 12024, from memory)
+    let cat = bundled();
+    let mut pairs = 0;
+    for l in cat.ligands() {
+        let Some(other) = &l.counterpart else {
+            continue;
+        };
+        let o = ligand(cat, other);
+        assert_eq!(o.counterpart.as_deref(), Some(l.key.as_str()), "{}", l.key);
+        let (x, ox) = (l.modes[0].class.x, o.modes[0].class.x);
+        assert_eq!(x.abs_diff(ox), 1, "{} and {other}", l.key);
+        pairs += 1;
+    }
+    assert!(pairs >= 4, "{pairs} pincer forms");
+}
+
+#[test]
+fn a_counterpart_that_is_not_a_key_is_reported() {
+    let text = r#"
+[[ligand]]
+key = "XPNP"
+name = "test pincer"
+formula = "C2H6NP2"
+family = "pincer"
+counterpart = "NoSuchKey"
+
+[[ligand.mode]]
+label = "κ3"
+class = "L3"
+"#;
+    let cat = Catalogue::from_sets(Vec::new(), vec![("user.toml".into(), text.into())]);
+    assert!(cat
+        .warnings
+        .iter()
+        .any(|w| w.to_string().contains("counterpart 'NoSuchKey'")));
+    // the ligand itself still loads
+    assert!(cat.get("XPNP").is_some());
+}

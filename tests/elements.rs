@@ -32,3 +32,18 @@ fn f_block_metals_match_the_reference_and_have_no_group_there() {
         assert_eq!(r.name().to_lowercase(), e.name, "{}", e.symbol);
     }
 }
+
+#[test]
+fn usual_oxidation_states_include_the_reference_main_states() {
+    // every "main" oxidation state the reference table gives a d-block metal is among the
+    // states nonet treats as usual (nonet adds the low states of organometallic chemistry)
+    use mendeleev::OxidationStateCategory::Main;
+    use nonet::chem::element::common_oxidation_states;
+    for e in ELEMENTS.iter().filter(|e| e.block == Block::D) {
+        let ours = common_oxidation_states(e.symbol);
+        assert!(!ours.is_empty(), "{}: no usual states", e.symbol);
+        for s in reference(e.symbol).oxidation_states(Main) {
+            assert!(ours.contains(s), "{}: {s:+} missing", e.symbol);
+        }
+    }
+}

@@ -430,3 +430,20 @@ fn isotope_labels_fragment_names_and_hyphenated_substituents() {
         read("Me2Si(C5Me4)(NtBu)TiCl2").0
     );
 }
+
+#[test]
+fn pincers_say_which_form_was_read() {
+    // Milstein's PNP: the neutral pyridine pincer in Ru(H)Cl(CO)(PNP), Ru(II) 18 e; its
+    // dearomatized form PNP* gives the 16-e Ru(H)(CO)(PNP*) (Gunanathan & Milstein, Chem.
+    // Rev. 2014, 114, 12024; from memory)
+    assert_eq!(counts("Ru(PNP)(CO)HCl"), (18, 2, 6));
+    assert_eq!(counts("Ru(PNP*)(CO)H"), (16, 2, 6));
+    let n = notes_of("Ru(PNP)(CO)HCl");
+    assert!(
+        n.iter()
+            .any(|x| x.contains("neutral form") && x.contains("write PNP* for that")),
+        "{n:?}"
+    );
+    let n = notes_of("Ru(PNP*)(CO)H");
+    assert!(n.iter().any(|x| x.contains("anionic form")), "{n:?}");
+}

@@ -84,6 +84,8 @@ struct RawLigand {
     #[serde(default)]
     notes: Option<String>,
     #[serde(default)]
+    counterpart: Option<String>,
+    #[serde(default)]
     mode: Vec<Spanned<RawMode>>,
 }
 
@@ -530,6 +532,7 @@ fn convert(raw: RawLigand, origin: &str) -> Result<LigandDef, Problem> {
         hazards: raw.hazards,
         hazard_source: raw.hazard_source,
         notes: raw.notes,
+        counterpart: raw.counterpart,
         modes,
         origin: origin.to_string(),
         traits: crate::chem::ligand::FamilyTraits::of(&raw.family),

@@ -162,6 +162,22 @@ impl Catalogue {
                 }
             }
         }
+        for l in &ligands {
+            if let Some(other) = &l.counterpart {
+                if !ligand_index.contains_key(other) {
+                    warnings.push(SetError {
+                        file: l.origin.clone(),
+                        line: 0,
+                        column: 0,
+                        key: Some(l.key.clone()),
+                        message: format!(
+                            "counterpart '{other}' is not a ligand key; the note on the other \
+                             form is left out"
+                        ),
+                    });
+                }
+            }
+        }
         let ligands: Vec<Arc<LigandDef>> = ligands.into_iter().map(Arc::new).collect();
         let mut tokens: HashMap<String, usize, BuildHasherDefault<Fnv>> = HashMap::default();
         for (i, l) in ligands.iter().enumerate() {

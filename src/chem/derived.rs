@@ -97,6 +97,7 @@ fn make(m: &Molecule, lookup: &dyn LigandLookup) -> LigandDef {
         hazards: Vec::new(),
         hazard_source: None,
         notes: Some("made from its structure; not a catalogue entry".into()),
+        counterpart: None,
         modes,
         origin: "derived".into(),
         structure: None,

@@ -185,6 +185,15 @@ fn expand_fragments(
     Some((out, out_cols, names))
 }
 
+/// "neutral" or "anionic": how a ligand with `x` X functions is charged in the ionic model.
+fn charge_word(x: u8) -> &'static str {
+    match x {
+        0 => "neutral",
+        1 => "anionic",
+        _ => "dianionic",
+    }
+}
+
 /// Where lattice water or solvent starts: the first centred or plain dot outside SMILES
 /// braces (a dot inside braces is a bond).
 fn top_level_dot(text: &str) -> Option<usize> {
@@ -484,6 +493,36 @@ fn parse_body(
             "{key} is not in the catalogue: read from its formula as written"
         ));
     }
+    // a pincer papers write in two protonation forms: which one was read, and the other's name
+    let mut told: Vec<&str> = Vec::new();
+    let mut forms = Vec::new();
+    for (_, b) in complex.all_ligands() {
+        let Some(other) = b.ligand.counterpart.as_deref() else {
+            continue;
+        };
+        if told.contains(&b.ligand.key.as_str()) {
+            continue;
+        }
+        told.push(&b.ligand.key);
+        let Some((o, other_mode)) = p
+            .lookup
+            .exact(other)
+            .and_then(|o| Some((o, o.modes.first()?)))
+        else {
+            continue;
+        };
+        let (this_class, other_class) = (b.mode().class, other_mode.class);
+        forms.push(format!(
+            "{} read as the {} form ({this_class}); {} is its {} form ({other_class}): write {} \
+             for that",
+            b.ligand.key,
+            charge_word(this_class.x),
+            o.key,
+            charge_word(other_class.x),
+            o.key
+        ));
+    }
+    complex.notes.extend(forms);
     Ok(complex)
 }
 

@@ -269,6 +269,9 @@ pub struct LigandDef {
     pub hazards: Vec<String>,
     pub hazard_source: Option<String>,
     pub notes: Option<String>,
+    /// The key of the same ligand in its other protonation form, where papers write both
+    /// (a pincer's neutral amine or pyridine and its anionic amide or dearomatized arm).
+    pub counterpart: Option<String>,
     pub modes: Vec<BindingMode>,
     /// Which set it came from ("bundled:phosphorus", or a user file path).
     pub origin: String,

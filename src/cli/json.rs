@@ -219,6 +219,8 @@ struct LigandLine<'a> {
     hazards: &'a [String],
     hazard_source: Option<&'a str>,
     notes: Option<&'a str>,
+    /// The key of the other protonation form (pincers), if the catalogue names one.
+    counterpart: Option<&'a str>,
     origin: &'a str,
 }
 
@@ -255,6 +257,7 @@ pub fn write_ligand(out: &mut impl Write, l: &LigandDef) -> io::Result<()> {
         hazards: &l.hazards,
         hazard_source: l.hazard_source.as_deref(),
         notes: l.notes.as_deref(),
+        counterpart: l.counterpart.as_deref(),
         origin: &l.origin,
     };
     serde_json::to_writer(&mut *out, &line)?;

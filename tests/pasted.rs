@@ -447,3 +447,30 @@ fn pincers_say_which_form_was_read() {
     let n = notes_of("Ru(PNP*)(CO)H");
     assert!(n.iter().any(|x| x.contains("anionic form")), "{n:?}");
 }
+
+#[test]
+fn a_ligand_key_that_spells_an_element_reads_the_plausible_way() {
+    // Ac is acetyl and Np neopentyl when the element would stand bare before the real metal:
+    // MeC(O)Mn(CO)5, Mn(I) 18 e, the product of CO insertion into MeMn(CO)5 (Crabtree, The
+    // Organometallic Chemistry of the Transition Metals, 6th ed., 2014, ch. 7)
+    assert_eq!(read("AcMn(CO)5").0, read("Mn(CO)5(COMe)").0);
+    assert_eq!(counts("AcMn(CO)5"), (18, 1, 6));
+    assert_eq!(read("NpMn(CO)5").0, read("Mn(CO)5(CH2tBu)").0);
+    assert_eq!(counts("AcPd(PPh3)2Cl"), (16, 2, 8));
+    // alone, the symbol is the element: PrCl3 is Pr(III) (common practice)
+    let (_, r) = read("PrCl3");
+    assert_eq!(r.metals[0].symbol, "Pr");
+    assert_eq!(r.metals[0].oxidation_state, Frac::int(3));
+    // after a metal with nothing more to bind, the ligand (Cp2ZrPr2, Zr(IV) d0 16 e)
+    assert_eq!(counts("Cp2ZrPr2"), (16, 4, 0));
+    assert!(!notes_of("Cp2ZrPr2").iter().any(|n| n.contains("could be")));
+    // both readings possible: the note says which was taken; where the ligand reading would
+    // leave Zr(V) d-1, the element reading is taken instead
+    let n = notes_of("Cp2ZrPrCl2");
+    assert!(
+        n.iter()
+            .any(|x| x.contains("'Pr' could be") && x.contains("praseodymium")),
+        "{n:?}"
+    );
+    assert!(read("Cp2ZrPrCl2").1.impossible().is_none());
+}

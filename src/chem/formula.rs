@@ -294,7 +294,7 @@ pub fn parse(input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseErr
     let body_cols = cols
         .as_ref()
         .map(|c| &c[..body.chars().count().min(c.len())]);
-    let mut complex = match parse_body(body, body_cols, input, lookup) {
+    let mut complex = match parse_body(body, body_cols, input, lookup, false) {
         // a ligand written before the dot and the metal after it ("Me2S·AuCl"): the adduct
         // of the two
         Err(e) if e.message == "no metal in the formula" => match solvent {
@@ -311,6 +311,20 @@ pub fn parse(input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseErr
         },
         other => other?,
     };
+    // a token read as a ligand where it could be an element, or the other way round, when
+    // that reading gives an impossible count: the other reading, if it counts
+    if complex
+        .notes
+        .iter()
+        .any(|n| n.contains("' could be the ligand"))
+        && super::count::count(&complex).impossible().is_some()
+    {
+        if let Ok(other) = parse_body(body, body_cols, input, lookup, true) {
+            if super::count::count(&other).impossible().is_none() {
+                complex = other;
+            }
+        }
+    }
     // a salt written without brackets ("Ru(bpy)3Cl2", "Cu(MeCN)4PF6"): anions at the end that
     // would take a metal past 18 e are counter-ions
     if let Some(better) = unbracketed_salt(body, &complex, lookup) {
@@ -358,11 +372,14 @@ pub fn parse(input: &str, lookup: &dyn LigandLookup) -> Result<Complex, ParseErr
     Ok(complex)
 }
 
+/// `flip`: read a token that could be a ligand or an element the other way from the rule (see
+/// `Parser::bare`), where both readings are possible.
 fn parse_body(
     text: &str,
     cols: Option<&[usize]>,
     input: &str,
     lookup: &dyn LigandLookup,
+    flip: bool,
 ) -> Result<Complex, ParseError> {
     let mut p = Parser {
         input,
@@ -371,6 +388,8 @@ fn parse_body(
         lookup,
         metals: 0,
         labels: Vec::new(),
+        readings: Vec::new(),
+        flip,
     };
     let mut notes = Vec::new();
     let (start, stereo) = p.isomer_prefix(&mut notes);
@@ -411,6 +430,7 @@ fn parse_body(
             hint: Some("write the metal's symbol, e.g. Fe(CO)5 or [Co(NH3)6]3+".into()),
         });
     }
+    notes.append(&mut p.readings);
     let mut complex = Complex {
         sites: Vec::new(),
         shared: Vec::new(),
@@ -1364,6 +1384,10 @@ struct Parser<'a> {
     metals: usize,
     /// Oxidation-state labels written after a metal ("Cu(I)", "Ru(II)"), as (metal, state).
     labels: Vec<(&'static Element, i32)>,
+    /// Notes on tokens read one way where another reading was also possible.
+    readings: Vec<String>,
+    /// Take the other reading where a token could be a ligand or an element.
+    flip: bool,
 }
 
 impl<'a> Parser<'a> {
@@ -2184,7 +2208,36 @@ impl<'a> Parser<'a> {
         let metal_len = metal.map_or(0, |m| m.symbol.len());
         // a tie ("Pr": propyl or praseodymium) goes to the ligand once a metal has been read,
         // and to the metal while the formula has none yet ("PrCl3", "Cp2ZrPr2")
-        let ligand_wins = |len: usize| len > metal_len || (len == metal_len && self.metals > 0);
+        let mut tie_to_ligand = self.metals > 0;
+        // a ligand key that spells a metal ("Ac" acetyl or actinium, "Np" neopentyl or
+        // neptunium): the element reading needs something to bind after it
+        let tie = match (ligand, metal) {
+            (Some((l, len)), Some(m)) if len == metal_len => Some((l, m)),
+            _ => None,
+        };
+        if let Some((l, m)) = tie {
+            let after = rest[metal_len..].trim_start_matches(|c: char| c.is_ascii_digit());
+            let bare_metal = after.is_empty()
+                || after.starts_with([')', ']', '+', '-', '^', ' ', '·', '.'])
+                || element::symbol_prefix(after).is_some();
+            let metal_later = has_metal_token(after);
+            if bare_metal {
+                // a metal with nothing written to bind: the catalogue's ligand
+                tie_to_ligand = true;
+            } else if self.metals > 0 || metal_later {
+                tie_to_ligand = (self.metals > 0) != self.flip;
+                let taken = if tie_to_ligand {
+                    format!("the ligand {} ({})", l.key, l.name)
+                } else {
+                    format!("the element {}", m.name)
+                };
+                self.readings.push(format!(
+                    "'{}' could be the ligand {} ({}) or the element {}; read as {taken}",
+                    m.symbol, l.key, l.name, m.name
+                ));
+            }
+        }
+        let ligand_wins = |len: usize| len > metal_len || (len == metal_len && tie_to_ligand);
         match ligand {
             Some((l, len)) if metal.is_none() || ligand_wins(len) => {
                 Ok((Item::Ligand(BoundLigand::new(l.clone(), 0, 1)), len))

@@ -1264,6 +1264,9 @@ fn normalize(input: &str) -> (Cow<'_, str>, Option<Vec<usize>>) {
 /// the character ranges of each label, a run of superscript digits (with ᵐ for a metastable
 /// state) at the start of a token and right before a capital letter.
 fn isotope_labels(input: &str) -> Vec<std::ops::Range<usize>> {
+    if input.is_ascii() || !input.chars().any(|c| superscript_digit(c).is_some()) {
+        return Vec::new();
+    }
     let chars: Vec<char> = input.chars().collect();
     let mut out = Vec::new();
     let mut i = 0;

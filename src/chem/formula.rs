@@ -629,7 +629,9 @@ fn salt_units(t: &str, start: usize) -> Option<Vec<SaltUnit<'_>>> {
         }
         // a known counter-ion without brackets, with a count: "K2", "(BF4)2", "Cl3"
         let rest = &t[pos..];
-        let (name, q) = CATIONS.iter().chain(ANIONS).find(|(n, _)| {
+        // no name starts with '(': a parenthesized one is looked up by what follows it
+        let named = rest.strip_prefix('(').unwrap_or(rest);
+        let (name, q) = ions_starting(named, IonTable::Both).find(|(n, _)| {
             opens_with(rest, n)
                 || rest
                     .strip_prefix('(')
@@ -777,7 +779,7 @@ fn unbracketed_acid(body: &str, complex: &Complex, lookup: &dyn LigandLookup) ->
 pub fn parse_ions(input: &str, lookup: &dyn LigandLookup) -> Result<Vec<Complex>, ParseError> {
     let e = match parse(input, lookup) {
         Ok(c) => return Ok(vec![c]),
-        Err(e) if e.message.starts_with("2 complex ions") => e,
+        Err(e) if e.is_two_ions() => e,
         Err(e) => return Err(e),
     };
     let (text, _) = normalize(input);
@@ -1772,8 +1774,7 @@ impl<'a> Parser<'a> {
         let mut at = 0;
         let mut names = Vec::new();
         let mut charge = 0;
-        while let Some((name, q)) = CATIONS
-            .iter()
+        while let Some((name, q)) = ions_starting(&t[at..], IonTable::Cations)
             .filter(|(n, _)| *n != "H")
             .find(|(n, _)| opens_with(&t[at..], n))
         {
@@ -2305,6 +2306,11 @@ impl<'a> Parser<'a> {
 }
 
 impl ParseError {
+    /// `parse` refused a salt of two complex ions, which `parse_ions` reads.
+    pub fn is_two_ions(&self) -> bool {
+        self.message.starts_with("2 complex ions")
+    }
+
     fn with_hint(mut self, hint: &str) -> ParseError {
         self.hint = Some(hint.to_string());
         self
@@ -2421,6 +2427,47 @@ pub(crate) fn charge_value(text: &str) -> Option<i32> {
 
 /// Read `text` as a run of counter-ions from `table`, each optionally in parentheses and with a
 /// count: "Cl3", "(PF6)2", "K3", "NBu4". None when anything else is in the way.
+/// Which counter-ion table `ions_starting` looks in.
+#[derive(Clone, Copy)]
+enum IonTable {
+    Cations,
+    /// Cations, then anions.
+    Both,
+}
+
+/// The counter-ions whose names start with `text`'s first byte, in table order (cations first):
+/// every formula is checked against the tables, so they are indexed by first byte once.
+fn ions_starting(
+    text: &str,
+    table: IonTable,
+) -> impl Iterator<Item = &'static (&'static str, i32)> {
+    static INDEX: std::sync::OnceLock<[Vec<(u8, bool)>; 128]> = std::sync::OnceLock::new();
+    let index = INDEX.get_or_init(|| {
+        let mut by_first: [Vec<(u8, bool)>; 128] = std::array::from_fn(|_| Vec::new());
+        for (i, (n, _)) in CATIONS.iter().enumerate() {
+            if let Some(&b) = n.as_bytes().first().filter(|b| b.is_ascii()) {
+                by_first[b as usize].push((i as u8, true));
+            }
+        }
+        for (i, (n, _)) in ANIONS.iter().enumerate() {
+            if let Some(&b) = n.as_bytes().first().filter(|b| b.is_ascii()) {
+                by_first[b as usize].push((i as u8, false));
+            }
+        }
+        by_first
+    });
+    let list: &[(u8, bool)] = match text.as_bytes().first() {
+        Some(&b) if b.is_ascii() => &index[b as usize],
+        _ => &[],
+    };
+    list.iter()
+        .filter_map(move |&(i, cation)| match (cation, table) {
+            (true, _) => CATIONS.get(i as usize),
+            (false, IonTable::Both) => ANIONS.get(i as usize),
+            (false, IonTable::Cations) => None,
+        })
+}
+
 /// `text.starts_with(name)`, looking at the first byte before comparing the rest: the ion
 /// tables are scanned for every formula.
 fn opens_with(text: &str, name: &str) -> bool {

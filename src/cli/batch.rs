@@ -207,9 +207,18 @@ impl Counter<'_> {
 
     fn one(&self, input: &str, number: Option<usize>, done: &mut Done) {
         let place = || number.map(|n| format!("line {n}: ")).unwrap_or_default();
-        match chem::parse_ions(input, self.cat) {
-            Ok(ions) => {
-                let reports: Vec<_> = ions.iter().map(chem::count).collect();
+        // one complex, as nearly every line is; a salt of two complex ions goes through
+        // `parse_ions`, which reads each ion
+        let parsed = match chem::parse(input, self.cat) {
+            Ok(c) => Ok(smallvec::smallvec![chem::count(&c)]),
+            Err(e) if e.is_two_ions() => {
+                chem::parse_ions(input, self.cat).map(|ions| ions.iter().map(chem::count).collect())
+            }
+            Err(e) => Err(e),
+        };
+        match parsed {
+            Ok(reports) => {
+                let reports: smallvec::SmallVec<[chem::count::Report; 1]> = reports;
                 if let Some(why) = reports.iter().find_map(|r| r.impossible()) {
                     done.errors
                         .push(format!("{}{}: {why}", place(), diag::quote(input)));

@@ -369,3 +369,48 @@ fn the_data_directory_is_a_boundary() {
         "{err}"
     );
 }
+
+#[test]
+fn formula_and_charge_alone_read_the_same_as_the_full_count() {
+    // `--fields` naming only input, formula and charge skips the count; every line must come
+    // out as the full report trimmed to those fields, refusals and salts of two ions included
+    let s = Scratch::new("parse-only");
+    let corpus = include_str!("data/paste_corpus.tsv");
+    let mut text = String::new();
+    for line in corpus
+        .lines()
+        .filter(|l| !l.starts_with('#') && !l.is_empty())
+    {
+        let f = line.split('\t').next().unwrap_or_default();
+        text.push_str(f);
+        text.push('\n');
+        // the same complex with charges it cannot carry (d counts beyond 0-10)
+        text.push_str(&format!("[{f}]6-\n[{f}]7+\n"));
+    }
+    let fields = "schema,input,formula,charge";
+    let light = s.run_stdin(
+        &["count", "--json", "--fields", fields, "--batch", "-"],
+        text.as_bytes(),
+    );
+    let full = s.run_stdin(&["count", "--json", "--batch", "-"], text.as_bytes());
+    assert_eq!(light.code, full.code);
+    assert_eq!(light.stderr, full.stderr);
+    let keep = |v: &serde_json::Value| {
+        let o = v.as_object().expect("object");
+        if o.contains_key("error") {
+            return v.clone();
+        }
+        let kept: serde_json::Map<_, _> = o
+            .iter()
+            .filter(|(k, _)| fields.split(',').any(|f| f == k.as_str()) || *k == "ion")
+            .map(|(k, v)| (k.clone(), v.clone()))
+            .collect();
+        serde_json::Value::Object(kept)
+    };
+    let (a, b) = (light.json_lines(), full.json_lines());
+    assert_eq!(a.len(), b.len());
+    assert!(a.len() > 1500, "{} lines", a.len());
+    for (x, y) in a.iter().zip(&b) {
+        assert_eq!(*x, keep(y));
+    }
+}

@@ -52,3 +52,20 @@ proptest! {
         }
     }
 }
+
+proptest! {
+    #![proptest_config(ProptestConfig {
+        cases: 500,
+        failure_persistence: None,
+        ..ProptestConfig::default()
+    })]
+
+    /// The check that a complex can exist, made without the rest of the count (for
+    /// `count --fields input,formula,charge`), agrees with the full count's, at any charge.
+    #[test]
+    fn the_quick_existence_check_agrees_with_the_count(c in arb_complex(), q in -8i32..8) {
+        let mut c = c;
+        c.charge = q;
+        prop_assert_eq!(nonet::chem::count::impossible(&c), count(&c).impossible());
+    }
+}

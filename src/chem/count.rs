@@ -597,37 +597,85 @@ impl Report {
     /// past d10 per metal; a metal on its own may not.
     pub fn impossible(&self) -> Option<String> {
         let polynuclear = self.metals.len() > 1;
-        let most = Frac::int(if polynuclear { 11 } else { 10 });
         self.metals.iter().find_map(|m| {
-            m.group?;
-            let d = m.d_electrons;
-            if d < Frac::ZERO {
-                Some(format!(
-                    "{} would be {:+} with d{}: a group-{} metal has only {} electrons to give; \
-                     check the charge and the ligands",
-                    m.symbol,
-                    m.oxidation_state.to_f64(),
-                    d,
-                    m.group.unwrap_or(0),
-                    m.valence_electrons
-                ))
-            } else if d > most {
-                let limit = if polynuclear {
-                    "a d shell holds 10 electrons, and a metal-metal bond takes at most one more \
-                     per metal"
-                } else {
-                    "a d shell holds 10 electrons, and a metal with no metal partner has no use \
-                     for more"
-                };
-                Some(format!(
-                    "{} would be {} with d{}: {limit}; check the charge (too negative?) and the \
-                     ligands",
-                    m.symbol, m.oxidation_state, d
-                ))
-            } else {
-                None
-            }
+            impossible_metal(
+                m.symbol,
+                m.group?,
+                m.valence_electrons,
+                m.oxidation_state,
+                m.d_electrons,
+                polynuclear,
+            )
         })
+    }
+}
+
+/// `count(complex).impossible()` without the rest of the count: only each metal's oxidation
+/// state and d count, for callers that want no more than the formula and the charge
+/// (`count --fields input,formula,charge`). Agrees with the full count on every complex (a
+/// test checks it over the paste corpus and the fuzz seeds).
+pub fn impossible(complex: &Complex) -> Option<String> {
+    let n = complex.metal_count().max(1) as i64;
+    let share = Frac::new(1, n);
+    let charge_share = Frac::new(complex.charge as i64, n);
+    let polynuclear = complex.sites.len() > 1;
+    complex.sites.iter().find_map(|site| {
+        if site.element.block != Block::D {
+            return None;
+        }
+        // the ionic charges the ligands take away, as `Tally::add` sums them
+        let mut taken = Frac::ZERO;
+        for (b, part) in site
+            .ligands
+            .iter()
+            .map(|b| (b, Frac::int(1)))
+            .chain(complex.shared.iter().map(|b| (b, share)))
+        {
+            taken += part * b.count as i64 * b.mode().ionic_charge as i64;
+        }
+        let os = charge_share - taken;
+        let valence = site.element.valence as i64;
+        impossible_metal(
+            site.element.symbol,
+            site.element.group,
+            site.element.valence,
+            os,
+            -os + valence,
+            polynuclear,
+        )
+    })
+}
+
+/// Why a d-block metal at oxidation state `os` with `d` d electrons is no real complex, if it
+/// is not (see `Report::impossible`).
+fn impossible_metal(
+    symbol: &str,
+    group: u8,
+    valence: u8,
+    os: Frac,
+    d: Frac,
+    polynuclear: bool,
+) -> Option<String> {
+    let most = Frac::int(if polynuclear { 11 } else { 10 });
+    if d < Frac::ZERO {
+        Some(format!(
+            "{symbol} would be {:+} with d{d}: a group-{group} metal has only {valence} \
+             electrons to give; check the charge and the ligands",
+            os.to_f64(),
+        ))
+    } else if d > most {
+        let limit = if polynuclear {
+            "a d shell holds 10 electrons, and a metal-metal bond takes at most one more per \
+             metal"
+        } else {
+            "a d shell holds 10 electrons, and a metal with no metal partner has no use for more"
+        };
+        Some(format!(
+            "{symbol} would be {os} with d{d}: {limit}; check the charge (too negative?) and the \
+             ligands"
+        ))
+    } else {
+        None
     }
 }
 

@@ -68,6 +68,16 @@ fn read_bounded(
 /// The top-level JSON fields `--fields` keeps, checked against a real report's fields.
 struct Fields(Vec<String>);
 
+/// Fields the parsed complex gives without a count: when `--fields` names only these, a line
+/// is parsed and checked (`count::impossible`) but not counted.
+const PARSE_ONLY: &[&str] = &["schema", "input", "formula", "charge"];
+
+impl Fields {
+    fn parse_only(&self) -> bool {
+        self.0.iter().all(|f| PARSE_ONLY.contains(&f.as_str()))
+    }
+}
+
 impl Fields {
     fn new(names: &[String], cat: &Catalogue) -> Result<Option<Fields>, CliError> {
         if names.is_empty() {
@@ -207,6 +217,32 @@ impl Counter<'_> {
 
     fn one(&self, input: &str, number: Option<usize>, done: &mut Done) {
         let place = || number.map(|n| format!("line {n}: ")).unwrap_or_default();
+        // only the formula and the charge asked for: no count beyond the check that the
+        // complex can exist (a salt of two complex ions takes the full path below)
+        if let (true, Some(f)) = (self.json, self.fields.filter(|f| f.parse_only())) {
+            match chem::parse(input, self.cat) {
+                Ok(c) => {
+                    match chem::count::impossible(&c) {
+                        Some(why) => {
+                            done.errors
+                                .push(format!("{}{}: {why}", place(), diag::quote(input)));
+                            let _ = json::write_message(&mut done.out, input, &why);
+                            done.rejected = true;
+                        }
+                        None => json::append_parsed_fields(&mut done.out, input, &c, &f.0),
+                    }
+                    return;
+                }
+                Err(e) if e.is_two_ions() => {}
+                Err(e) => {
+                    done.errors
+                        .push(format!("{}{}", place(), diag::parse_error(&e)));
+                    let _ = json::write_error(&mut done.out, input, &e);
+                    done.rejected = true;
+                    return;
+                }
+            }
+        }
         // one complex, as nearly every line is; a salt of two complex ions goes through
         // `parse_ions`, which reads each ion
         let parsed = match chem::parse(input, self.cat) {

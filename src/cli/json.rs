@@ -6,7 +6,7 @@ use serde::Serialize;
 
 use super::jsonw;
 use crate::chem::ligand::LigandDef;
-use crate::chem::{ParseError, Report};
+use crate::chem::{Complex, ParseError, Report};
 
 /// Version of the JSON shape written by `count` and `ligands`.
 pub const SCHEMA: u32 = 1;
@@ -41,6 +41,41 @@ pub fn append_report_fields(buf: &mut Vec<u8>, input: &str, report: &Report, kee
         first = false;
     }
     jsonw::report_fields_only(buf, report, Some(keep), first);
+    buf.push(b'\n');
+}
+
+/// A count line for `--fields` naming only schema, input, formula and charge: written from
+/// the parsed complex, with the same keys in the same order as `append_report_fields`.
+pub fn append_parsed_fields(buf: &mut Vec<u8>, input: &str, c: &Complex, keep: &[String]) {
+    let wants = |k: &str| keep.iter().any(|x| x == k);
+    buf.push(b'{');
+    let mut first = true;
+    let mut comma = |buf: &mut Vec<u8>| {
+        if !first {
+            buf.push(b',');
+        }
+        first = false;
+    };
+    if wants("schema") {
+        comma(buf);
+        buf.extend_from_slice(b"\"schema\":1");
+    }
+    if wants("input") {
+        comma(buf);
+        buf.extend_from_slice(b"\"input\":");
+        jsonw::string(buf, input);
+    }
+    if wants("formula") {
+        comma(buf);
+        buf.extend_from_slice(b"\"formula\":");
+        jsonw::string(buf, &c.formula(false));
+    }
+    if wants("charge") {
+        comma(buf);
+        buf.extend_from_slice(b"\"charge\":");
+        buf.extend_from_slice(c.charge.to_string().as_bytes());
+    }
+    buf.push(b'}');
     buf.push(b'\n');
 }
 

@@ -236,7 +236,46 @@ fn count_through_the_binary(formulas: &[String]) -> String {
         expected,
         "one JSON line per formula line"
     );
+    // asking for the formula and charge alone skips the count: the same lines, the same
+    // refusals in the same words
+    let light = std::process::Command::new(common::cli::BIN)
+        .env("NONET_CONFIG_DIR", s.config())
+        .args([
+            "count",
+            "--json",
+            "--fields",
+            "input,formula,charge",
+            "--batch",
+        ])
+        .arg(&file)
+        .output()
+        .expect("run nonet");
+    assert_eq!(light.status.code(), code, "--fields input,formula,charge");
+    let light_lines = light
+        .stdout
+        .split(|&b| b == b'\n')
+        .filter(|l| !l.is_empty());
+    assert_eq!(
+        light_lines.count(),
+        lines.len(),
+        "--fields: one line per line"
+    );
     let stderr = String::from_utf8_lossy(&out.stderr);
+    // (what /usr/bin/time adds is left out)
+    let timed = stderr
+        .lines()
+        .filter(|l| !l.starts_with("peak ") && !l.starts_with("Command exited with"))
+        .collect::<Vec<_>>();
+    let light_err = String::from_utf8_lossy(&light.stderr);
+    let first_difference = timed
+        .iter()
+        .copied()
+        .zip(light_err.lines())
+        .find(|(a, b)| a != b);
+    assert!(
+        first_difference.is_none() && timed.len() == light_err.lines().count(),
+        "--fields input,formula,charge refuses other lines than the full count: {first_difference:?}"
+    );
     let peak = stderr
         .lines()
         .rev()

@@ -1,0 +1,217 @@
+//! Stereoisomers of a set of donors on a coordination polyhedron: every way to place the
+//! donors, classed up to rotation of the polyhedron (so enantiomers count apart) and paired
+//! with their mirror images. Donors are written as in the textbook tables: monodentate
+//! ligands as small letters with counts (`Ma2b2c2`), chelates as two capitals in parentheses,
+//! the same letter twice for a symmetric one (`M(AA)3`, `M(AB)2cd`).
+
+use std::collections::BTreeMap;
+
+use super::polyhedron::Polyhedron;
+
+/// One ligand of the composition.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Part {
+    /// A monodentate donor.
+    Mono(char),
+    /// A chelate with its two donor ends (the same letter twice when symmetric).
+    Chelate(char, char),
+}
+
+impl Part {
+    fn denticity(self) -> usize {
+        match self {
+            Part::Mono(_) => 1,
+            Part::Chelate(..) => 2,
+        }
+    }
+}
+
+/// What a position holds: the donor's letter and, for a chelate end, the position of the
+/// other end.
+pub type Seat = (char, Option<u8>);
+
+/// One stereoisomer: what sits at each position of the polyhedron.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct Isomer {
+    pub seats: Vec<Seat>,
+    /// Not superimposable on its mirror image (its enantiomer is listed too).
+    pub chiral: bool,
+}
+
+/// Why a composition cannot be placed.
+#[derive(Debug, Clone, PartialEq, Eq, thiserror::Error)]
+pub enum IsomerError {
+    #[error("'{0}' is not a composition: write M, then small letters with counts and chelates as two capitals in parentheses, e.g. Ma2b2c2 or M(AA)2b2")]
+    Notation(String),
+    #[error("the donors fill {donors} positions but a {name} centre has {positions}")]
+    Positions {
+        donors: usize,
+        positions: usize,
+        name: &'static str,
+    },
+}
+
+/// Read the textbook notation: `Ma2b2c2`, `Mabcdef`, `M(AA)3`, `M(AB)(CD)ef`.
+pub fn parse_parts(text: &str) -> Result<Vec<Part>, IsomerError> {
+    let bad = || IsomerError::Notation(text.to_string());
+    let body = text.trim().strip_prefix('M').ok_or_else(bad)?;
+    let chars: Vec<char> = body.chars().collect();
+    let mut parts = Vec::new();
+    let mut i = 0;
+    while i < chars.len() {
+        let part = match chars[i] {
+            c if c.is_ascii_lowercase() => {
+                i += 1;
+                Part::Mono(c)
+            }
+            '(' => match chars.get(i + 1..i + 4) {
+                Some(&[a, b, ')']) if a.is_ascii_uppercase() && b.is_ascii_uppercase() => {
+                    i += 4;
+                    Part::Chelate(a, b)
+                }
+                _ => return Err(bad()),
+            },
+            _ => return Err(bad()),
+        };
+        let digits: String = chars[i..]
+            .iter()
+            .take_while(|c| c.is_ascii_digit())
+            .collect();
+        i += digits.len();
+        let n: usize = if digits.is_empty() {
+            1
+        } else {
+            digits.parse().map_err(|_| bad())?
+        };
+        if n == 0 || n > 12 {
+            return Err(bad());
+        }
+        parts.extend(std::iter::repeat_n(part, n));
+    }
+    if parts.is_empty() {
+        return Err(bad());
+    }
+    Ok(parts)
+}
+
+/// Every stereoisomer of `parts` on `poly`, enantiomers listed apart, in a fixed order.
+pub fn enumerate(poly: &Polyhedron, parts: &[Part]) -> Result<Vec<Isomer>, IsomerError> {
+    let donors: usize = parts.iter().map(|p| p.denticity()).sum();
+    if donors != poly.positions() {
+        return Err(IsomerError::Positions {
+            donors,
+            positions: poly.positions(),
+            name: poly.name,
+        });
+    }
+    let mut chelates: Vec<(char, char)> = Vec::new();
+    let mut monos: BTreeMap<char, usize> = BTreeMap::new();
+    for p in parts {
+        match *p {
+            Part::Chelate(a, b) => chelates.push((a, b)),
+            Part::Mono(c) => *monos.entry(c).or_insert(0) += 1,
+        }
+    }
+    let mut seen: BTreeMap<Vec<u16>, Vec<Seat>> = BTreeMap::new();
+    let mut seats: Vec<Option<Seat>> = vec![None; poly.positions()];
+    place_chelates(poly, &chelates, &mut monos, &mut seats, &mut seen);
+    let keys: Vec<Vec<u16>> = seen.keys().cloned().collect();
+    Ok(seen
+        .into_iter()
+        .map(|(key, seats)| {
+            let mirror = canonical(poly, &apply(&poly.improper, &seats));
+            let chiral = mirror != key;
+            debug_assert!(keys.contains(&mirror));
+            Isomer { seats, chiral }
+        })
+        .collect())
+}
+
+/// How many stereoisomers (enantiomers apart) and how many enantiomeric pairs among them.
+pub fn tally(isomers: &[Isomer]) -> (usize, usize) {
+    let chiral = isomers.iter().filter(|i| i.chiral).count();
+    (isomers.len(), chiral / 2)
+}
+
+fn place_chelates(
+    poly: &Polyhedron,
+    chelates: &[(char, char)],
+    monos: &mut BTreeMap<char, usize>,
+    seats: &mut Vec<Option<Seat>>,
+    seen: &mut BTreeMap<Vec<u16>, Vec<Seat>>,
+) {
+    let Some((&(a, b), rest)) = chelates.split_first() else {
+        place_monos(poly, monos, seats, seen);
+        return;
+    };
+    for &(p, q) in &poly.spans {
+        if seats[p as usize].is_some() || seats[q as usize].is_some() {
+            continue;
+        }
+        let ends: &[(u8, u8)] = if a == b { &[(p, q)] } else { &[(p, q), (q, p)] };
+        for &(x, y) in ends {
+            seats[x as usize] = Some((a, Some(y)));
+            seats[y as usize] = Some((b, Some(x)));
+            place_chelates(poly, rest, monos, seats, seen);
+            seats[x as usize] = None;
+            seats[y as usize] = None;
+        }
+    }
+}
+
+fn place_monos(
+    poly: &Polyhedron,
+    monos: &mut BTreeMap<char, usize>,
+    seats: &mut Vec<Option<Seat>>,
+    seen: &mut BTreeMap<Vec<u16>, Vec<Seat>>,
+) {
+    let Some(free) = seats.iter().position(Option::is_none) else {
+        let full: Vec<Seat> = seats.iter().map(|s| s.unwrap_or((' ', None))).collect();
+        let key = canonical(poly, &full);
+        seen.entry(key).or_insert(full);
+        return;
+    };
+    let letters: Vec<char> = monos
+        .iter()
+        .filter(|(_, &n)| n > 0)
+        .map(|(&c, _)| c)
+        .collect();
+    for c in letters {
+        if let Some(n) = monos.get_mut(&c) {
+            *n -= 1;
+        }
+        seats[free] = Some((c, None));
+        place_monos(poly, monos, seats, seen);
+        seats[free] = None;
+        if let Some(n) = monos.get_mut(&c) {
+            *n += 1;
+        }
+    }
+}
+
+/// The arrangement after moving every position `i` to `g[i]`.
+fn apply(g: &[u8], seats: &[Seat]) -> Vec<Seat> {
+    let mut out = vec![(' ', None); seats.len()];
+    for (i, &(c, partner)) in seats.iter().enumerate() {
+        out[g[i] as usize] = (c, partner.map(|q| g[q as usize]));
+    }
+    out
+}
+
+/// The smallest encoding of the arrangement over every rotation: equal for two arrangements
+/// exactly when a rotation carries one onto the other.
+fn canonical(poly: &Polyhedron, seats: &[Seat]) -> Vec<u16> {
+    let mut best: Option<Vec<u16>> = None;
+    let mut code = vec![0u16; seats.len()];
+    for g in &poly.rotations {
+        for (i, &(c, partner)) in seats.iter().enumerate() {
+            let at = g[i] as usize;
+            let p = partner.map_or(255u16, |q| u16::from(g[q as usize]));
+            code[at] = ((c as u16 & 0xff) << 8) | p;
+        }
+        if best.as_ref().is_none_or(|b| code < *b) {
+            best = Some(code.clone());
+        }
+    }
+    best.unwrap_or_default()
+}

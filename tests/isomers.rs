@@ -121,3 +121,39 @@ fn bad_compositions_are_refused_with_the_reason() {
         assert!(parse_parts(bad).is_err(), "{bad}");
     }
 }
+
+#[test]
+fn cis_trans_fac_mer_name_the_isomers() {
+    // IUPAC, Nomenclature of Inorganic Chemistry (Recommendations 2005), IR-9.3.3.3-4: cis and
+    // trans for [Ma2b4] and square-planar [Ma2b2], fac and mer for [Ma3b3]
+    let names = |poly: &Polyhedron, composition: &str| {
+        let parts = parse_parts(composition).expect("notation");
+        let mut n: Vec<_> = enumerate(poly, &parts)
+            .expect("placed")
+            .iter()
+            .filter_map(|i| i.short_name(poly))
+            .collect();
+        n.sort_unstable();
+        n
+    };
+    let oc = Polyhedron::octahedron();
+    assert_eq!(names(&oc, "Ma4b2"), ["cis", "trans"]);
+    assert_eq!(names(&oc, "Ma2b4"), ["cis", "trans"]);
+    assert_eq!(names(&oc, "Ma3b3"), ["fac", "mer"]);
+    assert_eq!(
+        names(&Polyhedron::square_plane(), "Ma2b2"),
+        ["cis", "trans"]
+    );
+    // compositions the words do not settle get none
+    assert!(names(&oc, "Ma2b2c2").is_empty());
+    // the trans pairs tell the six isomers of Ma2b2c2 apart but for the enantiomers: five
+    // sets of trans pairs, one of them shared by the chiral pair
+    let parts = parse_parts("Ma2b2c2").expect("notation");
+    let isomers = enumerate(&oc, &parts).expect("placed");
+    let mut sets: Vec<_> = isomers.iter().map(|i| i.trans_pairs(&oc)).collect();
+    sets.sort();
+    sets.dedup();
+    assert_eq!(sets.len(), 5);
+    assert!(sets.contains(&vec![('a', 'a'), ('b', 'b'), ('c', 'c')]));
+    assert!(sets.contains(&vec![('a', 'b'), ('a', 'c'), ('b', 'c')]));
+}

@@ -215,3 +215,55 @@ fn canonical(poly: &Polyhedron, seats: &[Seat]) -> Vec<u16> {
     }
     best.unwrap_or_default()
 }
+
+impl Isomer {
+    /// The donors opposite each other, as letter pairs in alphabetical order ("a-b"), sorted;
+    /// chelate ends spanning cis positions never appear together.
+    pub fn trans_pairs(&self, poly: &Polyhedron) -> Vec<(char, char)> {
+        let mut pairs: Vec<(char, char)> = poly
+            .trans
+            .iter()
+            .filter_map(|&(i, j)| {
+                let a = self.seats.get(i as usize)?.0;
+                let b = self.seats.get(j as usize)?.0;
+                Some((a.min(b), a.max(b)))
+            })
+            .collect();
+        pairs.sort_unstable();
+        pairs
+    }
+
+    /// The trade's short name where one applies (IUPAC 2005, IR-9.3.3.3-4): `cis`/`trans` for
+    /// a pair of like monodentate donors in a square plane or an octahedron whose other
+    /// donors are all alike, `fac`/`mer` for three like donors on an octahedron whose other
+    /// three are alike. None for compositions those words do not settle.
+    pub fn short_name(&self, poly: &Polyhedron) -> Option<&'static str> {
+        if self.seats.iter().any(|s| s.1.is_some()) {
+            return None;
+        }
+        let mut kinds: BTreeMap<char, Vec<u8>> = BTreeMap::new();
+        for (i, s) in self.seats.iter().enumerate() {
+            kinds.entry(s.0).or_default().push(i as u8);
+        }
+        if kinds.len() != 2 {
+            return None;
+        }
+        let smaller = kinds.values().min_by_key(|v| v.len())?;
+        match (poly.symbol, smaller.len()) {
+            ("SP-4" | "OC-6", 2) => Some(if poly.is_trans(smaller[0], smaller[1]) {
+                "trans"
+            } else {
+                "cis"
+            }),
+            ("OC-6", 3) => {
+                // mer: two of the three are trans; fac: none are
+                let trans = smaller
+                    .iter()
+                    .enumerate()
+                    .any(|(k, &a)| smaller[k + 1..].iter().any(|&b| poly.is_trans(a, b)));
+                Some(if trans { "mer" } else { "fac" })
+            }
+            _ => None,
+        }
+    }
+}

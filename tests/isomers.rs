@@ -157,3 +157,133 @@ fn cis_trans_fac_mer_name_the_isomers() {
     assert!(sets.contains(&vec![('a', 'a'), ('b', 'b'), ('c', 'c')]));
     assert!(sets.contains(&vec![('a', 'b'), ('a', 'c'), ('b', 'c')]));
 }
+
+#[test]
+fn positions_are_moved_by_the_symmetry_operations_rigidly() {
+    // every rotation keeps the angles between positions and the handedness of three of them;
+    // the improper operation keeps the angles and reverses the handedness
+    let dot = |p: [f64; 3], q: [f64; 3]| p[0] * q[0] + p[1] * q[1] + p[2] * q[2];
+    let triple = |p: [f64; 3], q: [f64; 3], r: [f64; 3]| {
+        dot(
+            p,
+            [
+                q[1] * r[2] - q[2] * r[1],
+                q[2] * r[0] - q[0] * r[2],
+                q[0] * r[1] - q[1] * r[0],
+            ],
+        )
+    };
+    for poly in [
+        Polyhedron::octahedron(),
+        Polyhedron::square_plane(),
+        Polyhedron::tetrahedron(),
+        Polyhedron::trigonal_bipyramid(),
+        Polyhedron::square_pyramid(),
+    ] {
+        let c = &poly.coords;
+        let n = poly.positions();
+        let ops = poly
+            .rotations
+            .iter()
+            .map(|g| (g, 1.0))
+            .chain([(&poly.improper, -1.0)]);
+        for (g, sign) in ops {
+            let at = |i: usize| c[g[i] as usize];
+            for i in 0..n {
+                for j in 0..n {
+                    assert!(
+                        (dot(c[i], c[j]) - dot(at(i), at(j))).abs() < 1e-9,
+                        "{}",
+                        poly.symbol
+                    );
+                    for k in 0..n {
+                        let before = triple(c[i], c[j], c[k]);
+                        let after = triple(at(i), at(j), at(k));
+                        assert!(
+                            (after - sign * before).abs() < 1e-9,
+                            "{} {g:?}",
+                            poly.symbol
+                        );
+                    }
+                }
+            }
+        }
+        // trans pairs point opposite ways
+        for &(i, j) in &poly.trans {
+            assert!(
+                (dot(c[i as usize], c[j as usize]) + 1.0).abs() < 1e-9,
+                "{}",
+                poly.symbol
+            );
+        }
+    }
+}
+
+#[test]
+fn the_skew_lines_convention() {
+    use nonet::chem::isomers::helicity;
+    // IUPAC 2005, Figure IR-9.1: axis AA along z; BB crosses the common normal (along x) at
+    // x = 1 and climbs as it turns. Turning from +x towards +y while climbing +z is the
+    // right-handed sense (IUPAC Gold Book, "helix sense": clockwise moving away from the
+    // observer), Δ; turning towards -y is Λ.
+    let right = helicity(
+        [0.0, 0.0, 0.0],
+        [0.0, 0.0, 1.0],
+        [1.0, 0.0, 0.0],
+        [1.0, 1.0, 1.0],
+    );
+    assert_eq!(right, Some(true));
+    let left = helicity(
+        [0.0, 0.0, 0.0],
+        [0.0, 0.0, 1.0],
+        [1.0, 0.0, 0.0],
+        [1.0, -1.0, 1.0],
+    );
+    assert_eq!(left, Some(false));
+    // either line read in either direction, or the two swapped, names the same helix
+    let flipped = helicity(
+        [0.0, 0.0, 1.0],
+        [0.0, 0.0, 0.0],
+        [1.0, 1.0, 1.0],
+        [1.0, 0.0, 0.0],
+    );
+    assert_eq!(flipped, Some(true));
+    let swapped = helicity(
+        [1.0, 0.0, 0.0],
+        [1.0, 1.0, 1.0],
+        [0.0, 0.0, 0.0],
+        [0.0, 0.0, 1.0],
+    );
+    assert_eq!(swapped, Some(true));
+    // orthogonal or meeting lines define no helix
+    assert_eq!(
+        helicity(
+            [0.0, 0.0, 0.0],
+            [0.0, 0.0, 1.0],
+            [1.0, 0.0, 0.0],
+            [1.0, 1.0, 0.0]
+        ),
+        None
+    );
+}
+
+#[test]
+fn tris_and_bis_chelates_come_as_delta_and_lambda() {
+    // [M(AA)3] and cis-[M(AA)2b2]: one Δ and one Λ, mirror images of each other; trans is
+    // achiral and unlabelled (IUPAC 2005, IR-9.3.4.12-13)
+    let oc = Polyhedron::octahedron();
+    for composition in ["M(AA)3", "M(AA)2b2", "M(AA)2bc"] {
+        let parts = parse_parts(composition).expect("notation");
+        let isomers = enumerate(&oc, &parts).expect("placed");
+        let mut labels: Vec<_> = isomers
+            .iter()
+            .filter_map(|i| i.configuration(&oc))
+            .collect();
+        labels.sort_unstable();
+        assert_eq!(labels, ["Δ", "Λ"], "{composition}");
+        assert!(isomers
+            .iter()
+            .filter(|i| !i.chiral)
+            .all(|i| i.configuration(&oc).is_none()));
+    }
+}

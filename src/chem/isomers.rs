@@ -267,3 +267,53 @@ impl Isomer {
         }
     }
 }
+
+/// The helix two skew lines define, by the skew-lines convention (IUPAC 2005, IR-9.3.4.11,
+/// Figure IR-9.1): line A (through `a0` and `a1`) is the axis, line B (through `b0` and `b1`)
+/// the tangent where their common normal meets it. True for a right-handed helix (Δ), false
+/// for a left-handed one (Λ); None when the lines meet, are parallel or are orthogonal.
+pub fn helicity(a0: [f64; 3], a1: [f64; 3], b0: [f64; 3], b1: [f64; 3]) -> Option<bool> {
+    let sub = |p: [f64; 3], q: [f64; 3]| [p[0] - q[0], p[1] - q[1], p[2] - q[2]];
+    let dot = |p: [f64; 3], q: [f64; 3]| p[0] * q[0] + p[1] * q[1] + p[2] * q[2];
+    let cross = |p: [f64; 3], q: [f64; 3]| {
+        [
+            p[1] * q[2] - p[2] * q[1],
+            p[2] * q[0] - p[0] * q[2],
+            p[0] * q[1] - p[1] * q[0],
+        ]
+    };
+    let (a, b) = (sub(a1, a0), sub(b1, b0));
+    let axb = cross(a, b);
+    // the common normal, from A to B, is along a x b with this sign
+    let normal = dot(sub(b0, a0), axb);
+    let along = dot(a, b);
+    const EPS: f64 = 1e-9;
+    if normal.abs() < EPS || along.abs() < EPS {
+        return None;
+    }
+    // B's direction splits into a turn about A, along a x n, and a climb along a: the helix is
+    // right-handed when the two have the same sign; with n along +(a x b) scaled by `normal`,
+    // b.(a x n) has the sign of -normal
+    Some(-normal * along > 0.0)
+}
+
+impl Isomer {
+    /// Δ or Λ for an octahedral isomer with two or more chelates that is chiral, from the
+    /// first two chelates by the skew-lines convention (IUPAC 2005, IR-9.3.4.12-13); None
+    /// otherwise.
+    pub fn configuration(&self, poly: &Polyhedron) -> Option<&'static str> {
+        if poly.symbol != "OC-6" || !self.chiral {
+            return None;
+        }
+        let mut lines = self
+            .seats
+            .iter()
+            .enumerate()
+            .filter_map(|(i, s)| s.1.filter(|&j| (i as u8) < j).map(|j| (i, j as usize)));
+        let (p, q) = lines.next()?;
+        let (r, s) = lines.next()?;
+        let c = &poly.coords;
+        let right = helicity(*c.get(p)?, *c.get(q)?, *c.get(r)?, *c.get(s)?)?;
+        Some(if right { "Δ" } else { "Λ" })
+    }
+}

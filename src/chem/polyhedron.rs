@@ -23,6 +23,9 @@ pub struct Polyhedron {
     pub spans: Vec<(u8, u8)>,
     /// Pairs of positions opposite each other through the metal.
     pub trans: Vec<(u8, u8)>,
+    /// Unit vectors from the metal to each position, in a right-handed frame; the rotations
+    /// and the improper operation map these onto each other.
+    pub coords: Vec<[f64; 3]>,
 }
 
 impl Polyhedron {
@@ -57,6 +60,14 @@ impl Polyhedron {
             improper: vec![1, 0, 3, 2, 5, 4], // the inversion
             spans,
             trans,
+            coords: vec![
+                [1.0, 0.0, 0.0],
+                [-1.0, 0.0, 0.0],
+                [0.0, 1.0, 0.0],
+                [0.0, -1.0, 0.0],
+                [0.0, 0.0, 1.0],
+                [0.0, 0.0, -1.0],
+            ],
         }
     }
 
@@ -72,6 +83,12 @@ impl Polyhedron {
             improper: vec![0, 1, 2, 3], // the molecular plane is a mirror
             spans: vec![(0, 1), (1, 2), (2, 3), (0, 3)],
             trans: vec![(0, 2), (1, 3)],
+            coords: vec![
+                [1.0, 0.0, 0.0],
+                [0.0, 1.0, 0.0],
+                [-1.0, 0.0, 0.0],
+                [0.0, -1.0, 0.0],
+            ],
         }
     }
 
@@ -87,6 +104,10 @@ impl Polyhedron {
             improper: vec![1, 0, 2, 3], // a mirror through vertices 2 and 3
             spans: all_pairs(4),
             trans: Vec::new(),
+            coords: {
+                let k = 1.0 / 3f64.sqrt();
+                vec![[k, k, k], [k, -k, -k], [-k, k, -k], [-k, -k, k]]
+            },
         }
     }
 
@@ -103,6 +124,16 @@ impl Polyhedron {
             improper: vec![1, 0, 2, 3, 4], // the equatorial mirror
             spans,
             trans: vec![(0, 1)],
+            coords: {
+                let (c, s) = (-0.5, 3f64.sqrt() / 2.0);
+                vec![
+                    [0.0, 0.0, 1.0],
+                    [0.0, 0.0, -1.0],
+                    [1.0, 0.0, 0.0],
+                    [c, s, 0.0],
+                    [c, -s, 0.0],
+                ]
+            },
         }
     }
 
@@ -126,6 +157,13 @@ impl Polyhedron {
                 (1, 4),
             ],
             trans: vec![(1, 3), (2, 4)],
+            coords: vec![
+                [0.0, 0.0, 1.0],
+                [1.0, 0.0, 0.0],
+                [0.0, 1.0, 0.0],
+                [-1.0, 0.0, 0.0],
+                [0.0, -1.0, 0.0],
+            ],
         }
     }
 }

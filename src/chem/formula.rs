@@ -559,13 +559,6 @@ struct SaltUnit<'t> {
 /// The ions of a salt written side by side from `start` ("[Cp2Co]+[PF6]-", "K2[PtCl4]",
 /// "[Fe(H2O)6](BF4)2", "[Cp2Fe][PF6]2"); None when the text is not such a row.
 fn salt_units(t: &str, start: usize) -> Option<Vec<SaltUnit<'_>>> {
-    let known = |inner: &str| {
-        CATIONS
-            .iter()
-            .chain(ANIONS)
-            .find(|(n, _)| *n == inner)
-            .map(|(_, q)| *q)
-    };
     let b = t.as_bytes();
     let mut units = Vec::new();
     let mut pos = start;
@@ -607,7 +600,7 @@ fn salt_units(t: &str, start: usize) -> Option<Vec<SaltUnit<'_>>> {
                 // a count on a bracketed counter-ion ("[PF6]2"); on anything else a multiplier
                 // of a dimer ("[CpFe(CO)2]2"), not a salt
                 _ if digits > 0 => {
-                    let k = known(inner)?;
+                    let k = known_ion_charge(inner)?;
                     let n: i32 = t[q..q + digits].parse().unwrap_or(1);
                     q += digits;
                     Some(k * n)
@@ -798,8 +791,8 @@ pub fn parse_ions(input: &str, lookup: &dyn LigandLookup) -> Result<Vec<Complex>
     let mut ions: Vec<(&str, Option<i32>)> = Vec::new();
     let mut counter = 0;
     for u in &units {
-        match CATIONS.iter().chain(ANIONS).find(|(n, _)| *n == u.inner) {
-            Some((_, k)) => counter += u.charge.unwrap_or(*k),
+        match known_ion_charge(u.inner) {
+            Some(k) => counter += u.charge.unwrap_or(k),
             None => ions.push((u.inner, u.charge)),
         }
     }
@@ -1639,18 +1632,11 @@ impl<'a> Parser<'a> {
         if units.len() < 2 || !units.iter().any(|u| u.bracketed) {
             return Ok(None);
         }
-        let known = |inner: &str| {
-            CATIONS
-                .iter()
-                .chain(ANIONS)
-                .find(|(n, _)| *n == inner)
-                .map(|(_, q)| *q)
-        };
         let mut complex_ions = Vec::new();
         let mut counter = 0;
         let mut names = Vec::new();
         for u in &units {
-            match known(u.inner) {
+            match known_ion_charge(u.inner) {
                 Some(q) => {
                     counter += u.charge.unwrap_or(q);
                     names.push(if u.bracketed {
@@ -2427,6 +2413,15 @@ pub(crate) fn charge_value(text: &str) -> Option<i32> {
 
 /// Read `text` as a run of counter-ions from `table`, each optionally in parentheses and with a
 /// count: "Cl3", "(PF6)2", "K3", "NBu4". None when anything else is in the way.
+/// The charge of a counter-ion the tables know by exactly this name.
+fn known_ion_charge(name: &str) -> Option<i32> {
+    CATIONS
+        .iter()
+        .chain(ANIONS)
+        .find(|(n, _)| *n == name)
+        .map(|(_, q)| *q)
+}
+
 /// Which counter-ion table `ions_starting` looks in.
 #[derive(Clone, Copy)]
 enum IonTable {

@@ -216,31 +216,19 @@ impl Counter<'_> {
     }
 
     fn one(&self, input: &str, number: Option<usize>, done: &mut Done) {
-        let place = || number.map(|n| format!("line {n}: ")).unwrap_or_default();
         // only the formula and the charge asked for: no count beyond the check that the
         // complex can exist (a salt of two complex ions takes the full path below)
         if let (true, Some(f)) = (self.json, self.fields.filter(|f| f.parse_only())) {
             match chem::parse(input, self.cat) {
                 Ok(c) => {
                     match chem::count::impossible(&c) {
-                        Some(why) => {
-                            done.errors
-                                .push(format!("{}{}: {why}", place(), diag::quote(input)));
-                            let _ = json::write_message(&mut done.out, input, &why);
-                            done.rejected = true;
-                        }
+                        Some(why) => self.impossible(input, &why, number, done),
                         None => json::append_parsed_fields(&mut done.out, input, &c, &f.0),
                     }
                     return;
                 }
                 Err(e) if e.is_two_ions() => {}
-                Err(e) => {
-                    done.errors
-                        .push(format!("{}{}", place(), diag::parse_error(&e)));
-                    let _ = json::write_error(&mut done.out, input, &e);
-                    done.rejected = true;
-                    return;
-                }
+                Err(e) => return self.unreadable(input, &e, number, done),
             }
         }
         // one complex, as nearly every line is; a salt of two complex ions goes through
@@ -256,13 +244,7 @@ impl Counter<'_> {
             Ok(reports) => {
                 let reports: smallvec::SmallVec<[chem::count::Report; 1]> = reports;
                 if let Some(why) = reports.iter().find_map(|r| r.impossible()) {
-                    done.errors
-                        .push(format!("{}{}: {why}", place(), diag::quote(input)));
-                    if self.json {
-                        let _ = json::write_message(&mut done.out, input, &why);
-                    }
-                    done.rejected = true;
-                    return;
+                    return self.impossible(input, &why, number, done);
                 }
                 let several = reports.len() > 1;
                 for report in &reports {
@@ -292,15 +274,35 @@ impl Counter<'_> {
                     }
                 }
             }
-            Err(e) => {
-                done.errors
-                    .push(format!("{}{}", place(), diag::parse_error(&e)));
-                if self.json {
-                    let _ = json::write_error(&mut done.out, input, &e);
-                }
-                done.rejected = true;
-            }
+            Err(e) => self.unreadable(input, &e, number, done),
         }
+    }
+
+    /// A formula read but describing no real complex (`why`): refused, with its line.
+    fn impossible(&self, input: &str, why: &str, number: Option<usize>, done: &mut Done) {
+        let place = number.map(|n| format!("line {n}: ")).unwrap_or_default();
+        done.errors
+            .push(format!("{place}{}: {why}", diag::quote(input)));
+        if self.json {
+            let _ = json::write_message(&mut done.out, input, why);
+        }
+        done.rejected = true;
+    }
+
+    /// A formula that could not be read: refused, with its line.
+    fn unreadable(
+        &self,
+        input: &str,
+        e: &chem::ParseError,
+        number: Option<usize>,
+        done: &mut Done,
+    ) {
+        let place = number.map(|n| format!("line {n}: ")).unwrap_or_default();
+        done.errors.push(format!("{place}{}", diag::parse_error(e)));
+        if self.json {
+            let _ = json::write_error(&mut done.out, input, e);
+        }
+        done.rejected = true;
     }
 
     fn run(&self, chunk: &Chunk) -> Done {

@@ -97,9 +97,14 @@ fn chelates_never_span_trans_positions() {
     let oc = Polyhedron::octahedron();
     let parts = parse_parts("M(AA)3").expect("notation");
     for iso in enumerate(&oc, &parts).expect("placed") {
-        for (i, &(_, partner)) in iso.seats.iter().enumerate() {
-            let j = partner.expect("every seat is a chelate end");
-            assert!(!oc.is_trans(i as u8, j), "{iso:?}");
+        for (i, &(_, group)) in iso.seats.iter().enumerate() {
+            let low = group.expect("every seat is a chelate end");
+            let ends: Vec<u8> = (0..6u8)
+                .filter(|&j| iso.seats[j as usize].1 == Some(low))
+                .collect();
+            assert_eq!(ends.len(), 2, "{iso:?}");
+            assert!(ends.contains(&(i as u8)));
+            assert!(!oc.is_trans(ends[0], ends[1]), "{iso:?}");
         }
     }
 }
@@ -117,7 +122,7 @@ fn bad_compositions_are_refused_with_the_reason() {
             ..
         }
     ));
-    for bad in ["a2b2", "M(A)2", "M(AAA)", "Ma0b6", "M", "Mx99"] {
+    for bad in ["a2b2", "M(A)2", "M(AAAA)", "M(AB", "Ma0b6", "M", "Mx99"] {
         assert!(parse_parts(bad).is_err(), "{bad}");
     }
 }

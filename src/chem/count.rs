@@ -57,6 +57,8 @@ pub struct Contribution {
     pub ionic: Frac,
     pub ionic_charge: Frac,
     pub shared: bool,
+    /// Positions (numbered from 1 on the polyhedron) each copy holds, when the isomer is fixed.
+    pub positions: Option<Vec<Vec<u8>>>,
 }
 
 impl Contribution {
@@ -71,7 +73,7 @@ impl Contribution {
 impl Serialize for Contribution {
     fn serialize<S: Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
         let m = self.mode();
-        let mut st = s.serialize_struct("Contribution", 8)?;
+        let mut st = s.serialize_struct("Contribution", 9)?;
         st.serialize_field("ligand", &self.ligand.key)?;
         st.serialize_field("mode", &m.label)?;
         st.serialize_field("class", &m.class)?;
@@ -80,6 +82,7 @@ impl Serialize for Contribution {
         st.serialize_field("ionic", &self.ionic)?;
         st.serialize_field("ionic_charge", &self.ionic_charge)?;
         st.serialize_field("shared", &self.shared)?;
+        st.serialize_field("positions", &self.positions)?;
         st.end()
     }
 }
@@ -165,6 +168,14 @@ pub struct MetalReport {
     pub electrons_short: Frac,
     pub open_sites: i64,
     pub metal_metal_bonds: Frac,
+    /// IUPAC polyhedral symbol of the coordination sphere ("OC-6"); None for a polynuclear
+    /// complex or a shape nonet does not place.
+    pub polyhedron: Option<&'static str>,
+    /// The IUPAC descriptor of the isomer ("OC-6-22"), when the written prefix or the
+    /// composition fixes one.
+    pub isomer: Option<String>,
+    /// How many stereoisomers the composition has on that polyhedron (enantiomers apart).
+    pub stereoisomers: Option<u32>,
     /// This metal's share of the complex's charge (internal; not part of the JSON).
     #[serde(skip)]
     pub charge_share: Frac,
@@ -337,6 +348,7 @@ impl<'a> Tally<'a> {
             }
         }
         self.contributions.push(Contribution {
+            positions: None,
             ligand: b.ligand.clone(),
             mode: b.mode,
             count,
@@ -810,6 +822,9 @@ fn metal_report(
         electrons_short: short,
         open_sites: open,
         metal_metal_bonds: bonds,
+        polyhedron: None,
+        isomer: None,
+        stereoisomers: None,
         charge_share,
         contributions: t.contributions,
         notes,

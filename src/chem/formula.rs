@@ -1450,7 +1450,8 @@ impl<'a> Parser<'a> {
                         })
                         .map(|p| p.len())
                 })
-                .or_else(|| configuration_label(rest).filter(|&n| rest.len() > n));
+                .or_else(|| configuration_label(rest).filter(|&n| rest.len() > n))
+                .or_else(|| polyhedral_label(rest).filter(|&n| rest.len() > n));
             match len {
                 Some(n) => {
                     found.push(&rest[..n]);
@@ -2506,4 +2507,46 @@ fn word_at(text: &str) -> &str {
         .find(|&(_, c)| !(c.is_alphanumeric() || c == '*' || c == '\''))
         .map_or(text.len(), |(i, _)| i);
     &text[..end]
+}
+
+/// An IUPAC polyhedral descriptor in front of a formula, with its hyphen: "OC-6-22-",
+/// "(OC-6-24-A)-", "SP-4-2-" (IUPAC 2005, IR-9.3.2-4). Its length in bytes.
+fn polyhedral_label(rest: &str) -> Option<usize> {
+    const SYMBOLS: [&str; 11] = [
+        "TBPY-5", "PBPY-7", "TPR-6", "SPY-5", "OC-6", "SP-4", "SS-4", "TP-3", "TS-3", "T-4", "L-2",
+    ];
+    let (open, s) = match rest.strip_prefix('(') {
+        Some(s) => (1, s),
+        None => (0, rest),
+    };
+    let sym = SYMBOLS.iter().find(|p| s.starts_with(*p))?;
+    let mut i = sym.len();
+    // segments: digits, or a chirality letter, each after a hyphen
+    while let Some(after) = s[i..].strip_prefix('-') {
+        let seg: usize = if let Some(n) = after
+            .char_indices()
+            .take_while(|(_, c)| c.is_ascii_digit())
+            .last()
+            .map(|(j, c)| j + c.len_utf8())
+        {
+            n
+        } else if let Some(c) = after.chars().next().filter(|c| "CAΔΛ".contains(*c)) {
+            c.len_utf8()
+        } else {
+            break;
+        };
+        let next = after[seg..].chars().next();
+        if !matches!(next, Some('-') | Some(')')) {
+            break;
+        }
+        i += 1 + seg;
+    }
+    if open == 1 {
+        let close = s[i..].strip_prefix(')')?;
+        close.strip_prefix('-')?;
+        Some(open + i + 2)
+    } else {
+        s[i..].strip_prefix('-')?;
+        Some(i + 1)
+    }
 }

@@ -9,12 +9,18 @@ use std::collections::BTreeMap;
 use super::polyhedron::Polyhedron;
 
 /// One ligand of the composition.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
 pub enum Part {
     /// A monodentate donor.
     Mono(char),
     /// A chelate with its two donor ends (the same letter twice when symmetric).
     Chelate(char, char),
+    /// A tridentate ligand on a meridian (a pincer: ends, middle, end).
+    Mer(char, char, char),
+    /// A tridentate ligand on a face (a tripod, a scorpionate, an η5 or η6 ring).
+    Fac(char, char, char),
+    /// A planar tetradentate ligand on four positions in a square (a porphyrinate).
+    Square(char),
 }
 
 impl Part {
@@ -22,12 +28,65 @@ impl Part {
         match self {
             Part::Mono(_) => 1,
             Part::Chelate(..) => 2,
+            Part::Mer(..) | Part::Fac(..) => 3,
+            Part::Square(_) => 4,
         }
+    }
+
+    /// Every way to put this ligand on free positions of `poly`, as (position, letter) lists.
+    fn placements(self, poly: &Polyhedron) -> Vec<Vec<(u8, char)>> {
+        let mut out: Vec<Vec<(u8, char)>> = Vec::new();
+        let mut push = |v: Vec<(u8, char)>| {
+            let mut key = v.clone();
+            key.sort_unstable();
+            if !out.iter().any(|o| {
+                let mut k = o.clone();
+                k.sort_unstable();
+                k == key
+            }) {
+                out.push(v);
+            }
+        };
+        match self {
+            Part::Mono(c) => (0..poly.positions() as u8).for_each(|p| push(vec![(p, c)])),
+            Part::Chelate(a, b) => {
+                for &(p, q) in &poly.spans {
+                    push(vec![(p, a), (q, b)]);
+                    push(vec![(q, a), (p, b)]);
+                }
+            }
+            Part::Mer(a, m, b) => {
+                for [p, q, r] in poly.mer_triads() {
+                    push(vec![(p, a), (q, m), (r, b)]);
+                    push(vec![(r, a), (q, m), (p, b)]);
+                }
+            }
+            Part::Fac(a, b, c) => {
+                for [p, q, r] in poly.fac_triads() {
+                    for [x, y, z] in [
+                        [p, q, r],
+                        [p, r, q],
+                        [q, p, r],
+                        [q, r, p],
+                        [r, p, q],
+                        [r, q, p],
+                    ] {
+                        push(vec![(x, a), (y, b), (z, c)]);
+                    }
+                }
+            }
+            Part::Square(c) => {
+                for sq in poly.squares() {
+                    push(sq.iter().map(|&p| (p, c)).collect());
+                }
+            }
+        }
+        out
     }
 }
 
-/// What a position holds: the donor's letter and, for a chelate end, the position of the
-/// other end.
+/// What a position holds: the donor's letter and, for an end of a polydentate ligand, the
+/// lowest position that ligand holds (its other ends share it).
 pub type Seat = (char, Option<u8>);
 
 /// One stereoisomer: what sits at each position of the polyhedron.
@@ -41,7 +100,7 @@ pub struct Isomer {
 /// Why a composition cannot be placed.
 #[derive(Debug, Clone, PartialEq, Eq, thiserror::Error)]
 pub enum IsomerError {
-    #[error("'{0}' is not a composition: write M, then small letters with counts and chelates as two capitals in parentheses, e.g. Ma2b2c2 or M(AA)2b2")]
+    #[error("'{0}' is not a composition: write M, then small letters with counts and chelates as two capitals in parentheses, e.g. Ma2b2c2 or M(AA)2b2 (three capitals for a meridional pincer, e.g. M(ABA)c3)")]
     Notation(String),
     #[error("the donors fill {donors} positions but a {name} centre has {positions}")]
     Positions {
@@ -64,10 +123,14 @@ pub fn parse_parts(text: &str) -> Result<Vec<Part>, IsomerError> {
                 i += 1;
                 Part::Mono(c)
             }
-            '(' => match chars.get(i + 1..i + 4) {
-                Some(&[a, b, ')']) if a.is_ascii_uppercase() && b.is_ascii_uppercase() => {
+            '(' => match (chars.get(i + 1..i + 4), chars.get(i + 1..i + 5)) {
+                (Some(&[a, b, ')']), _) if a.is_ascii_uppercase() && b.is_ascii_uppercase() => {
                     i += 4;
                     Part::Chelate(a, b)
+                }
+                (_, Some(&[a, b, c, ')'])) if [a, b, c].iter().all(char::is_ascii_uppercase) => {
+                    i += 5;
+                    Part::Mer(a, b, c)
                 }
                 _ => return Err(bad()),
             },
@@ -104,17 +167,23 @@ pub fn enumerate(poly: &Polyhedron, parts: &[Part]) -> Result<Vec<Isomer>, Isome
             name: poly.name,
         });
     }
-    let mut chelates: Vec<(char, char)> = Vec::new();
+    let mut groups: Vec<Part> = Vec::new();
     let mut monos: BTreeMap<char, usize> = BTreeMap::new();
     for p in parts {
         match *p {
-            Part::Chelate(a, b) => chelates.push((a, b)),
             Part::Mono(c) => *monos.entry(c).or_insert(0) += 1,
+            other => groups.push(other),
         }
     }
+    // the largest ligands first (fewer ways to place them), identical ones together
+    groups.sort_by_key(|g| (std::cmp::Reverse(g.denticity()), format!("{g:?}")));
     let mut seen: BTreeMap<Vec<u16>, Vec<Seat>> = BTreeMap::new();
     let mut seats: Vec<Option<Seat>> = vec![None; poly.positions()];
-    place_chelates(poly, &chelates, &mut monos, &mut seats, &mut seen);
+    let groups: Vec<Ways> = groups
+        .into_iter()
+        .map(|g| (g, g.placements(poly)))
+        .collect();
+    place_groups(poly, &groups, &mut monos, &mut seats, &mut seen, None);
     let keys: Vec<Vec<u16>> = seen.keys().cloned().collect();
     Ok(seen
         .into_iter()
@@ -133,28 +202,39 @@ pub fn tally(isomers: &[Isomer]) -> (usize, usize) {
     (isomers.len(), chiral / 2)
 }
 
-fn place_chelates(
+/// A ligand with every way to place it.
+type Ways = (Part, Vec<Vec<(u8, char)>>);
+
+fn place_groups(
     poly: &Polyhedron,
-    chelates: &[(char, char)],
+    groups: &[Ways],
     monos: &mut BTreeMap<char, usize>,
     seats: &mut Vec<Option<Seat>>,
     seen: &mut BTreeMap<Vec<u16>, Vec<Seat>>,
+    // where the previous group went, when it was the same ligand as this one: identical
+    // ligands are placed in rising order, so no arrangement is built once per ordering
+    from: Option<(Part, usize)>,
 ) {
-    let Some((&(a, b), rest)) = chelates.split_first() else {
+    let Some(((part, ways), rest)) = groups.split_first() else {
         place_monos(poly, monos, seats, seen);
         return;
     };
-    for &(p, q) in &poly.spans {
-        if seats[p as usize].is_some() || seats[q as usize].is_some() {
+    let part = *part;
+    let start = match from {
+        Some((prev, k)) if prev == part => k + 1,
+        _ => 0,
+    };
+    for (k, placement) in ways.iter().enumerate().skip(start) {
+        if placement.iter().any(|&(p, _)| seats[p as usize].is_some()) {
             continue;
         }
-        let ends: &[(u8, u8)] = if a == b { &[(p, q)] } else { &[(p, q), (q, p)] };
-        for &(x, y) in ends {
-            seats[x as usize] = Some((a, Some(y)));
-            seats[y as usize] = Some((b, Some(x)));
-            place_chelates(poly, rest, monos, seats, seen);
-            seats[x as usize] = None;
-            seats[y as usize] = None;
+        let low = placement.iter().map(|&(p, _)| p).min();
+        for &(p, c) in placement {
+            seats[p as usize] = Some((c, low));
+        }
+        place_groups(poly, rest, monos, seats, seen, Some((part, k)));
+        for &(p, _) in placement {
+            seats[p as usize] = None;
         }
     }
 }
@@ -190,23 +270,38 @@ fn place_monos(
 }
 
 /// The arrangement after moving every position `i` to `g[i]`.
-fn apply(g: &[u8], seats: &[Seat]) -> Vec<Seat> {
+pub fn apply(g: &[u8], seats: &[Seat]) -> Vec<Seat> {
     let mut out = vec![(' ', None); seats.len()];
-    for (i, &(c, partner)) in seats.iter().enumerate() {
-        out[g[i] as usize] = (c, partner.map(|q| g[q as usize]));
+    for (i, &(c, group)) in seats.iter().enumerate() {
+        out[g[i] as usize] = (c, group.map(|q| moved_group(g, seats, q)));
     }
     out
 }
 
+/// Where the group whose lowest position was `q` has its lowest position after `g`.
+fn moved_group(g: &[u8], seats: &[Seat], q: u8) -> u8 {
+    seats
+        .iter()
+        .enumerate()
+        .filter(|(_, s)| s.1 == Some(q))
+        .map(|(j, _)| g[j])
+        .min()
+        .unwrap_or(q)
+}
+
 /// The smallest encoding of the arrangement over every rotation: equal for two arrangements
 /// exactly when a rotation carries one onto the other.
-fn canonical(poly: &Polyhedron, seats: &[Seat]) -> Vec<u16> {
+pub fn canonical(poly: &Polyhedron, seats: &[Seat]) -> Vec<u16> {
     let mut best: Option<Vec<u16>> = None;
     let mut code = vec![0u16; seats.len()];
+    let grouped = seats.iter().any(|s| s.1.is_some());
     for g in &poly.rotations {
-        for (i, &(c, partner)) in seats.iter().enumerate() {
+        for (i, &(c, group)) in seats.iter().enumerate() {
             let at = g[i] as usize;
-            let p = partner.map_or(255u16, |q| u16::from(g[q as usize]));
+            let p = match group {
+                Some(q) if grouped => u16::from(moved_group(g, seats, q)),
+                _ => 255,
+            };
             code[at] = ((c as u16 & 0xff) << 8) | p;
         }
         if best.as_ref().is_none_or(|b| code < *b) {
@@ -305,11 +400,19 @@ impl Isomer {
         if poly.symbol != "OC-6" || !self.chiral {
             return None;
         }
+        let ends = |low: u8| -> Vec<usize> {
+            (0..self.seats.len())
+                .filter(|&i| self.seats[i].1 == Some(low))
+                .collect()
+        };
         let mut lines = self
             .seats
             .iter()
             .enumerate()
-            .filter_map(|(i, s)| s.1.filter(|&j| (i as u8) < j).map(|j| (i, j as usize)));
+            .filter(|&(i, s)| s.1 == Some(i as u8))
+            .map(|(i, _)| ends(i as u8))
+            .filter(|e| e.len() == 2)
+            .map(|e| (e[0], e[1]));
         let (p, q) = lines.next()?;
         let (r, s) = lines.next()?;
         let c = &poly.coords;

@@ -76,6 +76,12 @@ impl Fields {
     fn parse_only(&self) -> bool {
         self.0.iter().all(|f| PARSE_ONLY.contains(&f.as_str()))
     }
+
+    /// Whether a field that carries positions (the metals, or the notes a prefix may add)
+    /// is asked for.
+    fn wants_positions(&self) -> bool {
+        self.0.iter().any(|f| f == "metals" || f == "notes")
+    }
 }
 
 impl Fields {
@@ -234,7 +240,13 @@ impl Counter<'_> {
         // one complex, as nearly every line is; a salt of two complex ions goes through
         // `parse_ions`, which reads each ion
         let parsed = match chem::parse(input, self.cat) {
-            Ok(c) => Ok(smallvec::smallvec![chem::count(&c)]),
+            Ok(c) => {
+                let mut r = chem::count(&c);
+                if self.fields.is_none_or(|f| f.wants_positions()) {
+                    chem::geometry::annotate(&c, &mut r);
+                }
+                Ok(smallvec::smallvec![r])
+            }
             Err(e) if e.is_two_ions() => {
                 chem::parse_ions(input, self.cat).map(|ions| ions.iter().map(chem::count).collect())
             }

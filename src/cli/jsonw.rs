@@ -211,6 +211,19 @@ fn contribution(buf: &mut Vec<u8>, c: &Contribution) {
     o.frac("ionic", c.ionic);
     o.frac("ionic_charge", c.ionic_charge);
     o.bool("shared", c.shared);
+    match &c.positions {
+        Some(p) => o.array("positions", p, |b, copy| {
+            b.push(b'[');
+            for (i, &x) in copy.iter().enumerate() {
+                if i > 0 {
+                    b.push(b',');
+                }
+                int(b, x as i64);
+            }
+            b.push(b']');
+        }),
+        None => o.null("positions"),
+    }
     o.end();
 }
 
@@ -242,6 +255,18 @@ fn metal(buf: &mut Vec<u8>, m: &MetalReport) {
     o.frac("electrons_short", m.electrons_short);
     o.int("open_sites", m.open_sites);
     o.frac("metal_metal_bonds", m.metal_metal_bonds);
+    match m.polyhedron {
+        Some(p) => o.str("polyhedron", p),
+        None => o.null("polyhedron"),
+    }
+    match &m.isomer {
+        Some(i) => o.str("isomer", i),
+        None => o.null("isomer"),
+    }
+    match m.stereoisomers {
+        Some(n) => o.int("stereoisomers", n as i64),
+        None => o.null("stereoisomers"),
+    }
     o.array("contributions", &m.contributions, contribution);
     o.strs("notes", m.notes.iter().map(String::as_str));
     o.end();

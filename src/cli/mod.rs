@@ -2,6 +2,7 @@
 
 mod batch;
 mod diag;
+mod isomers;
 mod json;
 mod jsonw;
 mod screen;
@@ -88,6 +89,23 @@ pub enum Command {
     Sterics(StericsArgs),
     /// List the ligand catalogue, or search it when QUERY is given.
     Ligands(LigandsArgs),
+    /// List the stereoisomers of FORMULA (or of a textbook composition such as Ma2b2c2 or
+    /// M(AA)2b2) on its coordination polyhedron, with IUPAC descriptors.
+    Isomers(IsomersArgs),
+}
+
+#[derive(Debug, Args)]
+pub struct IsomersArgs {
+    /// A complex ('cis-PtCl2(NH3)2', 'Mo(CO)3(PMe3)3') or a composition ('Ma3b3', 'M(AB)2cd').
+    #[arg(value_name = "FORMULA")]
+    pub formula: String,
+    /// The polyhedron for a composition (L-2, TP-3, TS-3, T-4, SP-4, TBPY-5, SPY-5, OC-6,
+    /// PBPY-7); by default the one its donor count suggests.
+    #[arg(long, value_name = "SYMBOL")]
+    pub polyhedron: Option<String>,
+    /// One JSON object.
+    #[arg(long)]
+    pub json: bool,
 }
 
 #[derive(Debug, Args)]
@@ -446,6 +464,7 @@ pub fn run(cli: Cli) -> Outcome {
         Some(Command::Step(a)) => step(&a, ascii, data_dir),
         Some(Command::Screen(a)) => screen::run(&a),
         Some(Command::Sterics(a)) => sterics::run(&a, ascii),
+        Some(Command::Isomers(a)) => isomers::run(&a, ascii),
         Some(Command::Ligands(a)) => {
             if a.paths {
                 return print_paths();

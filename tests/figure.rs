@@ -36,7 +36,12 @@ fn the_suzuki_cycle_as_svg() {
         .filter(|n| n.has_tag_name("text"))
         .filter_map(|n| n.text())
         .collect();
-    for intermediate in ["[Pd(PPh3)2]", "[Pd(PPh3)2Br(Ph)]", "[Pd(PPh3)2Ph2]"] {
+    // the Pd(II) intermediates carry their isomer in front: cis from the addition of PhBr
+    for intermediate in [
+        "[Pd(PPh3)2]",
+        "SP-4-2-[Pd(PPh3)2Br(Ph)]",
+        "SP-4-2-[Pd(PPh3)2Ph2]",
+    ] {
         assert!(
             texts.contains(&intermediate),
             "{intermediate} missing: {texts:?}"

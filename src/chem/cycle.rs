@@ -2,6 +2,7 @@
 //! has passed, and the net reaction of the steps on it (what entered minus what left,
 //! cancelled, with stoichiometric counts).
 
+use super::formula::split_stereo;
 use super::molecule::Composition;
 use super::species::{term_text, Equation, Species, Term};
 
@@ -11,9 +12,21 @@ pub fn closure(formulas: &[String]) -> Option<(usize, usize)> {
     (1..formulas.len()).find_map(|j| {
         formulas[..j]
             .iter()
-            .position(|f| *f == formulas[j])
+            .position(|f| same_species(f, &formulas[j]))
             .map(|i| (i, j))
     })
+}
+
+/// Two canonical formulas name the same species: the same formula proper, and the same
+/// isomer where both name one (a formula without a descriptor stands for all its isomers, so
+/// a catalyst started unfixed that comes back as one isomer is back).
+pub fn same_species(a: &str, b: &str) -> bool {
+    if a == b {
+        return true;
+    }
+    let (sa, fa) = split_stereo(a);
+    let (sb, fb) = split_stereo(b);
+    fa == fb && (sa.is_none() || sb.is_none() || sa == sb)
 }
 
 /// What a run of steps took in and gave off overall.
@@ -177,5 +190,18 @@ mod tests {
         assert_eq!(closure(&f(&["A", "B", "C", "B", "A"])), Some((1, 3)));
         assert_eq!(closure(&f(&["A", "B", "C"])), None);
         assert_eq!(closure(&f(&[])), None);
+        // a start with no isomer named is back as any of its isomers; two named isomers differ
+        assert_eq!(
+            closure(&f(&["[PtCl2L2]", "X", "cis-[PtCl2L2]"])),
+            Some((0, 2))
+        );
+        assert_eq!(
+            closure(&f(&["SP-4-1-[PtCl2L2]", "X", "SP-4-2-[PtCl2L2]"])),
+            None
+        );
+        assert_eq!(
+            closure(&f(&["SP-4-1-[PtCl2L2]", "X", "SP-4-1-[PtCl2L2]"])),
+            Some((0, 2))
+        );
     }
 }

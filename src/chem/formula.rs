@@ -1094,6 +1094,65 @@ const ISOMER_PREFIXES: &[&str] = &[
     "Λ-", "delta-", "lambda-",
 ];
 
+/// The isomer and stereo prefixes at the start of `text` ("cis-", "(R,R)-", "OC-6-22-", several
+/// in a row): where the formula proper starts, and each prefix as written.
+fn prefixes(text: &str) -> (usize, Vec<&str>) {
+    let mut at = text.len() - text.trim_start().len();
+    let mut found: Vec<&str> = Vec::new();
+    loop {
+        let rest = &text[at..];
+        // several joined by commas: "mer,trans-"
+        let joined = rest.find('-').filter(|&i| {
+            let head = &rest[..i];
+            head.contains(',')
+                && head.split(',').all(|w| {
+                    ISOMER_PREFIXES
+                        .iter()
+                        .any(|p| p.trim_end_matches('-').eq_ignore_ascii_case(w.trim()))
+                })
+        });
+        let len = joined
+            .map(|i| i + 1)
+            .filter(|&n| rest.len() > n)
+            .or_else(|| {
+                ISOMER_PREFIXES
+                    .iter()
+                    .find(|p| {
+                        rest.len() > p.len()
+                            && rest.as_bytes()[0].eq_ignore_ascii_case(&p.as_bytes()[0])
+                            && rest
+                                .get(..p.len())
+                                .is_some_and(|h| h.eq_ignore_ascii_case(p))
+                    })
+                    .map(|p| p.len())
+            })
+            .or_else(|| configuration_label(rest).filter(|&n| rest.len() > n))
+            .or_else(|| polyhedral_label(rest).filter(|&n| rest.len() > n));
+        match len {
+            Some(n) => {
+                found.push(&rest[..n]);
+                at += n;
+            }
+            None => break,
+        }
+    }
+    (at, found)
+}
+
+/// A formula's stereo prefix (without its final '-') and the formula proper: the same species
+/// with or without a named isomer share the formula proper.
+pub fn split_stereo(formula: &str) -> (Option<&str>, &str) {
+    let (at, found) = prefixes(formula);
+    if found.is_empty() {
+        (None, formula.trim_start())
+    } else {
+        (
+            Some(formula[..at].trim().trim_end_matches('-')),
+            &formula[at..],
+        )
+    }
+}
+
 /// A parenthesized configuration label before a formula: "(R,R)-", "(S)-", "(±)-", "(+)-".
 fn configuration_label(text: &str) -> Option<usize> {
     let rest = text.strip_prefix('(')?;
@@ -1421,45 +1480,7 @@ impl<'a> Parser<'a> {
     /// Isomer and stereo prefixes at the start ("cis-", "rac-", "(R,R)-", "Δ-", several in a
     /// row): where the formula proper starts, and the prefixes as written.
     fn isomer_prefix(&self, notes: &mut Vec<String>) -> (usize, Option<String>) {
-        let mut at = self.text.len() - self.text.trim_start().len();
-        let mut found: Vec<&str> = Vec::new();
-        loop {
-            let rest = &self.text[at..];
-            // several joined by commas: "mer,trans-"
-            let joined = rest.find('-').filter(|&i| {
-                let head = &rest[..i];
-                head.contains(',')
-                    && head.split(',').all(|w| {
-                        ISOMER_PREFIXES
-                            .iter()
-                            .any(|p| p.trim_end_matches('-').eq_ignore_ascii_case(w.trim()))
-                    })
-            });
-            let len = joined
-                .map(|i| i + 1)
-                .filter(|&n| rest.len() > n)
-                .or_else(|| {
-                    ISOMER_PREFIXES
-                        .iter()
-                        .find(|p| {
-                            rest.len() > p.len()
-                                && rest.as_bytes()[0].eq_ignore_ascii_case(&p.as_bytes()[0])
-                                && rest
-                                    .get(..p.len())
-                                    .is_some_and(|h| h.eq_ignore_ascii_case(p))
-                        })
-                        .map(|p| p.len())
-                })
-                .or_else(|| configuration_label(rest).filter(|&n| rest.len() > n))
-                .or_else(|| polyhedral_label(rest).filter(|&n| rest.len() > n));
-            match len {
-                Some(n) => {
-                    found.push(&rest[..n]);
-                    at += n;
-                }
-                None => break,
-            }
-        }
+        let (at, found) = prefixes(self.text);
         if found.is_empty() {
             return (at, None);
         }

@@ -348,6 +348,26 @@ fn donor_keys(b: &BoundLigand, shape: Shape) -> Vec<DonorKey> {
             }
         }
     }
+    if chosen.is_empty() && !hapto {
+        // a carbon donor not marked in the SMILES (CO, an isocyanide, a carbene): the carbon
+        // with a lone pair, i.e. the one short of four bonds or carrying a negative charge
+        let open = |i: usize| -> i32 {
+            let a = m.atoms[i];
+            let used: i32 = m
+                .neighbors(i)
+                .map(|(_, o)| i32::from(o.min(3)))
+                .sum::<i32>()
+                + i32::from(a.h);
+            4 - used - i32::from(a.charge) * 2
+        };
+        if let Some(i) = (0..m.atoms.len())
+            .filter(|&i| m.atoms[i].z == periodic::C && !m.atoms[i].aromatic)
+            .max_by_key(|&i| (open(i), std::cmp::Reverse(i)))
+            .filter(|&i| open(i) > 0)
+        {
+            chosen.push(i);
+        }
+    }
     let mut keys: Vec<DonorKey> = chosen.into_iter().take(n).map(key).collect();
     if keys.is_empty() {
         // a π ligand or a carbon donor without a marked atom: a carbon end
@@ -671,4 +691,99 @@ pub fn annotate(complex: &Complex, report: &mut Report) {
                 .collect()
         });
     }
+}
+
+/// Where each ligand sits, in a few short rows: the trans pairs as axes through the metal
+/// ("Cl — Pt — PEt3"), the rest by the polyhedron's own words (apical, equatorial). Rows that
+/// repeat are written once with a count, so a ring over three positions takes one row.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Sketch {
+    /// The polyhedron and the isomer: "OC-6-22 fac", or "OC-6, 2 isomers".
+    pub head: String,
+    pub rows: Vec<String>,
+}
+
+/// The sketch of a placed complex: the fixed isomer's positions, else the isomers it may be.
+pub fn sketch(placed: &Placed, metal: &str) -> Sketch {
+    let f = &placed.frame;
+    let poly = f.poly;
+    let Some(iso) = placed.fixed() else {
+        let names: Vec<String> = placed
+            .chosen
+            .iter()
+            .map(|&i| {
+                let d = &placed.descriptors[i];
+                let short = f.short_names(&placed.isomers[i]).join(",");
+                if short.is_empty() {
+                    d.clone()
+                } else {
+                    format!("{d} {short}")
+                }
+            })
+            .collect();
+        return Sketch {
+            head: format!(
+                "{} {}, {} of {} isomers possible",
+                poly.symbol,
+                poly.name,
+                placed.chosen.len(),
+                placed.isomers.len()
+            ),
+            rows: vec![names.join(" · ")],
+        };
+    };
+    let label = |p: u8| f.seat_label(&iso.seats[p as usize]);
+    let d = &placed.descriptors[placed.chosen[0]];
+    let short = f.short_names(iso).join(",");
+    let head = if placed.isomers.len() < 2 {
+        format!("{} {}", poly.symbol, poly.name)
+    } else if short.is_empty() {
+        d.clone()
+    } else {
+        format!("{d} {short}")
+    };
+    let axis = |a: u8, b: u8| format!("{} — {metal} — {}", label(a), label(b));
+    let mut rows: Vec<String> = Vec::new();
+    let mut on_axis = vec![false; poly.positions()];
+    match poly.symbol {
+        "TBPY-5" | "PBPY-7" => {
+            rows.push(format!("axial {}", axis(0, 1)));
+            let ring: Vec<String> = (2..poly.positions() as u8).map(label).collect();
+            rows.push(format!("equatorial {}", ring.join(", ")));
+            return Sketch { head, rows };
+        }
+        "T-4" | "TP-3" => {
+            let all: Vec<String> = (0..poly.positions() as u8).map(label).collect();
+            rows.push(format!("around {metal}: {}", all.join(", ")));
+            return Sketch { head, rows };
+        }
+        _ => {}
+    }
+    for &(a, b) in &poly.trans {
+        on_axis[a as usize] = true;
+        on_axis[b as usize] = true;
+        rows.push(axis(a, b));
+    }
+    // positions with nothing trans: the apex of a square pyramid, the stem of a T
+    for p in 0..poly.positions() as u8 {
+        if !on_axis[p as usize] {
+            rows.push(format!(
+                "{} {} — {metal} — (open)",
+                poly.roles[p as usize],
+                label(p)
+            ));
+        }
+    }
+    let mut counted: Vec<(String, usize)> = Vec::new();
+    for r in rows {
+        match counted.iter_mut().find(|(s, _)| *s == r) {
+            Some(e) => e.1 += 1,
+            None => counted.push((r, 1)),
+        }
+    }
+    let rows = counted
+        .into_iter()
+        .map(|(r, n)| if n > 1 { format!("{r} (x{n})") } else { r })
+        .collect();
+    Sketch { head, rows }
 }

@@ -30,6 +30,7 @@ pub mod spin;
 pub mod steps;
 pub mod sterics;
 pub mod structure;
+pub mod trans;
 
 pub use complex::{BoundLigand, Complex, MetalSite};
 pub use count::{count, Report};

@@ -50,7 +50,8 @@ fn signed(v: &serde_json::Value) -> String {
 /// its last, which the figure draws once).
 pub fn svg(s: &Session, ids: &[u64]) -> String {
     let all: Vec<&Variant> = ids.iter().filter_map(|&i| s.get(i)).collect();
-    let closed = all.len() > 2 && all.first().map(|v| &v.formula) == all.last().map(|v| &v.formula);
+    let closed = all.len() > 2
+        && matches!((all.first(), all.last()), (Some(a), Some(b)) if crate::chem::cycle::same_species(&a.formula, &b.formula));
     // a closed cycle's last variant is its first species again: the ring has one node fewer
     let nodes: Vec<&Variant> = if closed {
         all[..all.len() - 1].to_vec()

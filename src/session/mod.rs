@@ -15,6 +15,7 @@ use std::path::{Path, PathBuf};
 use std::sync::OnceLock;
 
 use crate::chem::cycle::{self, Net};
+use crate::chem::formula::split_stereo;
 use crate::chem::molecule::Molecule;
 use crate::chem::species::{Equation, Species, Term};
 use crate::chem::{Complex, Report};
@@ -491,19 +492,27 @@ impl Session {
     fn all_closures(&self) -> HashMap<u64, u64> {
         let mut out = HashMap::new();
         let mut path: Vec<&Variant> = Vec::new();
-        let mut on_path: HashMap<&str, Vec<u64>> = HashMap::new();
+        // keyed by the formula proper; the stereo prefix decides among those (see same_species)
+        let mut on_path: HashMap<&str, Vec<(u64, Option<&str>)>> = HashMap::new();
         for (depth, v) in self.tree() {
             while path.len() > depth {
                 if let Some(gone) = path.pop() {
-                    if let Some(ids) = on_path.get_mut(gone.formula.as_str()) {
+                    let (_, proper) = split_stereo(&gone.formula);
+                    if let Some(ids) = on_path.get_mut(proper) {
                         ids.pop();
                     }
                 }
             }
-            if let Some(&earlier) = on_path.get(v.formula.as_str()).and_then(|ids| ids.last()) {
+            let (stereo, proper) = split_stereo(&v.formula);
+            let earlier = on_path.get(proper).and_then(|ids| {
+                ids.iter()
+                    .rev()
+                    .find(|(_, s)| stereo.is_none() || s.is_none() || *s == stereo)
+            });
+            if let Some(&(earlier, _)) = earlier {
                 out.insert(v.id, earlier);
             }
-            on_path.entry(v.formula.as_str()).or_default().push(v.id);
+            on_path.entry(proper).or_default().push((v.id, stereo));
             path.push(v);
         }
         out

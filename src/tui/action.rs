@@ -62,6 +62,7 @@ pub enum Action {
     StepCoupling,
     /// Type any step as the CLI writes it.
     StepTyped,
+    StepIsomerization,
     /// The next partner, alkene or regiochemistry of the step in the preview.
     NextChoice,
     /// The current path drawn as a cycle.

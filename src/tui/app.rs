@@ -489,6 +489,7 @@ impl App {
             Action::StepProtonolysis => self.ask(Ask::Acid, true),
             Action::StepMetalation => self.ask(Ask::CHSubstrate, true),
             Action::StepTyped => self.ask(Ask::Step, false),
+            Action::StepIsomerization => self.pend_choices(Step::Isomerization(String::new())),
             Action::StepDissociation => self.pend_on_selected(Step::Dissociation),
             Action::StepCycloaddition => self.pend_with_choices(|k| Step::Cycloaddition {
                 unsaturated: String::new(),
@@ -1024,7 +1025,10 @@ impl App {
             return;
         }
         let step = match what {
-            Ask::Substrate => Step::OxidativeAddition(text),
+            Ask::Substrate => match Step::parse(&format!("oxidative-addition {text}")) {
+                Ok(s) => s,
+                Err(_) => Step::OxidativeAddition(text, None),
+            },
             Ask::Ligand => Step::Association(text),
             Ask::Transmetalating => {
                 // onto the selected X group if one is selected, else the usual halide

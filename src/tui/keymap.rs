@@ -415,6 +415,14 @@ pub static BINDINGS: &[Binding] = &[
         Context::Complex,
     ),
     b(
+        &[Key::ch('I')],
+        "I",
+        Action::StepIsomerization,
+        "isomerization to another arrangement (n shows the next)",
+        "",
+        Context::Global,
+    ),
+    b(
         &[Key::ch(':')],
         ":",
         Action::StepTyped,

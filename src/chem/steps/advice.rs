@@ -137,6 +137,18 @@ pub fn choices(c: &Complex, seed: &Step, lookup: &dyn LigandLookup) -> Vec<Step>
                 }
             }
         }
+        Step::Isomerization(_) => {
+            // every other arrangement of the same ligands, by configuration index
+            let report = crate::chem::geometry::counted(c);
+            if let Ok(p) = crate::chem::geometry::place(c, &report) {
+                let now: &[usize] = if p.chosen.len() == 1 { &p.chosen } else { &[] };
+                for (i, d) in p.descriptors.iter().enumerate() {
+                    if !now.contains(&i) {
+                        out.push(Step::Isomerization(d.clone()));
+                    }
+                }
+            }
+        }
         other => out.push(other.clone()),
     }
     // keep those that go through, once each by product

@@ -28,6 +28,7 @@ mod ctx;
 mod cyclo;
 mod insertion;
 mod ligands;
+mod positions;
 mod redox;
 
 use std::fmt;
@@ -39,6 +40,7 @@ use super::frac::Frac;
 use super::species::Equation;
 pub use advice::{choices, suggest};
 use ctx::Ctx;
+pub use positions::Course;
 
 /// Which way an alkene inserts: `1,2` puts the metal on the less substituted carbon, `2,1` on
 /// the more substituted one.
@@ -75,7 +77,8 @@ pub enum Step {
         reagent: String,
         leaving: Option<String>,
     },
-    OxidativeAddition(String),
+    /// The substrate, and cis or trans when the chemist chooses (else from the substrate).
+    OxidativeAddition(String, Option<Course>),
     ReductiveElimination(String, String),
     MigratoryInsertion {
         inserting: String,
@@ -145,6 +148,8 @@ pub enum Step {
         group: String,
         base: Option<String>,
     },
+    /// The same complex rearranged to the named isomer ("cis", "OC-6-22").
+    Isomerization(String),
 }
 
 /// Each step's word, its arguments and one example, as the CLI, the log and the README write
@@ -160,7 +165,11 @@ pub const STEP_WORDS: &[(&str, &str, &str)] = &[
         "REAGENT [LEAVING]",
         "transmetalation PhB(OH)2 Br",
     ),
-    ("oxidative-addition", "SUBSTRATE", "oxidative-addition MeI"),
+    (
+        "oxidative-addition",
+        "SUBSTRATE [cis|trans]",
+        "oxidative-addition MeI",
+    ),
     (
         "reductive-elimination",
         "GROUP GROUP",
@@ -234,6 +243,7 @@ pub const STEP_WORDS: &[(&str, &str, &str)] = &[
         "GROUP [BASE]",
         "deprotonation HNMe2 NaOtBu",
     ),
+    ("isomerization", "ISOMER", "isomerization cis"),
 ];
 
 /// Other spellings chemists use for a step word.
@@ -339,8 +349,19 @@ impl Step {
                 }
             }
             "oxidative-addition" => {
-                want(1, 1)?;
-                Step::OxidativeAddition(a(0))
+                want(1, 2)?;
+                let course = match args.get(1).map(|s| s.to_lowercase()) {
+                    None => None,
+                    Some(c) if c == "cis" => Some(Course::Cis),
+                    Some(c) if c == "trans" => Some(Course::Trans),
+                    Some(other) => {
+                        return Err(StepError::Usage(format!(
+                            "'{other}' is not a course of addition: write cis (concerted) or \
+                             trans (SN2), e.g. oxidative-addition MeI trans"
+                        )))
+                    }
+                };
+                Step::OxidativeAddition(a(0), course)
             }
             "reductive-elimination" => {
                 want(2, 2)?;
@@ -468,6 +489,10 @@ impl Step {
                 want(0, 1)?;
                 Step::Protonation { acid: opt(0) }
             }
+            "isomerization" => {
+                want(1, 1)?;
+                Step::Isomerization(a(0))
+            }
             "deprotonation" => {
                 want(1, 2)?;
                 Step::Deprotonation {
@@ -493,7 +518,8 @@ impl Step {
             Step::Homolysis(_) => "homolysis",
             Step::Abstraction { .. } => "abstraction",
             Step::Transmetalation { .. } => "transmetalation",
-            Step::OxidativeAddition(_) => "oxidative-addition",
+            Step::OxidativeAddition(..) => "oxidative-addition",
+            Step::Isomerization(_) => "isomerization",
             Step::ReductiveElimination(..) => "reductive-elimination",
             Step::MigratoryInsertion { .. } => "migratory-insertion",
             Step::Deinsertion(_) => "deinsertion",
@@ -581,12 +607,16 @@ impl fmt::Display for Step {
             Step::Dissociation(l)
             | Step::Association(l)
             | Step::Homolysis(l)
-            | Step::OxidativeAddition(l)
+            | Step::Isomerization(l)
             | Step::Deinsertion(l)
             | Step::AlphaElimination(l)
             | Step::Cycloreversion(l)
             | Step::ReductiveDecoupling(l) => write!(f, " {l}"),
             Step::Deprotonation { group, base } => write!(f, " {group}{}", opt(base)),
+            Step::OxidativeAddition(s, course) => match course {
+                Some(c) => write!(f, " {s} {c}"),
+                None => write!(f, " {s}"),
+            },
             Step::Protonation { acid } => f.write_str(&opt(acid)),
             Step::Substitution { leaving, entering } => write!(f, " {leaving} {entering}"),
             Step::Abstraction { group, by } => write!(f, " {group} {by}"),
@@ -700,7 +730,7 @@ pub fn take(
     step: &Step,
     lookup: &dyn LigandLookup,
 ) -> Result<Outcome, StepError> {
-    let before = count(complex);
+    let before = super::geometry::counted(complex);
     let charge_only = matches!(step, Step::Oxidation { .. } | Step::Reduction { .. });
     if complex.metal_count() != 1 && !charge_only {
         return refuse(
@@ -717,7 +747,8 @@ pub fn take(
         Step::Homolysis(g) => ligands::homolysis(&mut cx, g)?,
         Step::Abstraction { group, by } => ligands::abstraction(&mut cx, group, by)?,
         Step::RingSlip { ligand, hapticity } => ligands::ring_slip(&mut cx, ligand, *hapticity)?,
-        Step::OxidativeAddition(s) => redox::oxidative_addition(&mut cx, s)?,
+        Step::OxidativeAddition(s, _) => redox::oxidative_addition(&mut cx, s)?,
+        Step::Isomerization(t) => positions::isomerization(complex, &before, t)?,
         Step::ReductiveElimination(a, b) => redox::reductive_elimination(&mut cx, a, b)?,
         Step::Oxidation { by } => redox::electron_transfer(&mut cx, 1, by.as_deref())?,
         Step::Reduction { by } => redox::electron_transfer(&mut cx, -1, by.as_deref())?,
@@ -771,10 +802,24 @@ pub fn take(
         Step::OxidativeCoupling(a, b) => cyclo::oxidative_coupling(&mut cx, a, b)?,
         Step::ReductiveDecoupling(g) => cyclo::reductive_decoupling(&mut cx, g)?,
     };
+    let mut product = product;
     let after = count(&product);
     if let Some(why) = after.impossible() {
         return refuse(why);
     }
+    let mut geo_notes = Vec::new();
+    if !matches!(step, Step::Isomerization(_)) {
+        let course = match step {
+            Step::OxidativeAddition(_, c) => *c,
+            _ => None,
+        };
+        let (stereo, notes) = positions::follow(step, complex, &before, &product, &after, course)?;
+        product.stereo = stereo;
+        geo_notes = notes;
+    }
+    let mut after = after;
+    super::geometry::annotate(&product, &mut after);
+    after.formula = product.formula(false);
     if matches!(
         after.metals.first().map(|m| m.saturation),
         Some(Saturation::Above18)
@@ -782,7 +827,8 @@ pub fn take(
     {
         return refuse("association would take the metal past 18 e");
     }
-    let (equation, notes) = cx.finish();
+    let (equation, mut notes) = cx.finish();
+    notes.extend(geo_notes);
     equation
         .check_balance(complex, &product)
         .map_err(|why| StepError::Unbalanced(format!("{step}: {why}")))?;

@@ -359,3 +359,63 @@ fn snapshot_cycle_view() {
     insta::assert_snapshot!("cycle_80x24", small);
     insta::assert_snapshot!("cycle_120x40", text(&screen(&app, 120, 40, COLOR)));
 }
+
+// ---------------------------------------------------------------- positions
+
+#[test]
+fn the_working_pane_draws_where_each_ligand_sits_at_80x24() {
+    // trans-[PdMe(Ph)(PPh3)2]: the phosphines trans, Me trans to Ph (common practice)
+    let mut app = app_for("trans-PdMePh(PPh3)2", false);
+    let s = text(&screen(&app, 80, 24, COLOR));
+    assert!(s.contains("SP-4-1 trans"), "{s}");
+    assert!(s.contains("PPh3—Pd—PPh3") && s.contains("Ph—Pd—Me"), "{s}");
+    // the same in ASCII, and every row of the pane fits the small window
+    let ascii = app_for("trans-PdMePh(PPh3)2", true);
+    let a = text(&screen(&ascii, 80, 24, COLOR));
+    assert!(a.is_ascii() && a.contains("PPh3-Pd-PPh3"), "{a}");
+    // an octahedron with three different axes, and room to draw them row by row
+    let oc = app_for("OC-6-34-RuClH(CO)(PMe2Ph)3", false);
+    let big = text(&screen(&oc, 120, 40, COLOR));
+    assert!(
+        big.contains("Cl — Ru — CO") && big.contains("PMe2Ph — Ru — PMe2Ph"),
+        "{big}"
+    );
+    // reductive elimination of two trans groups is refused with the way out named; the
+    // isomerization key previews it, Enter commits, and then the elimination goes
+    press(&mut app, "jR");
+    let s = text(&screen(&app, 80, 24, COLOR));
+    assert!(
+        s.contains("cis") && s.contains("isomerization SP-4-3"),
+        "{s}"
+    );
+    press(&mut app, "I");
+    let s = text(&screen(&app, 80, 24, COLOR));
+    assert!(s.contains("SP-4-3 cis: PPh3—Pd—Ph · PPh3—Pd—Me"), "{s}");
+    press(&mut app, "<enter>");
+    assert!(app.editor.complex.formula(false).starts_with("SP-4-3-["));
+    press(&mut app, "R<enter>");
+    assert_eq!(app.editor.complex.formula(false), "[Pd(PPh3)2]");
+}
+
+#[test]
+fn a_swap_keeps_the_other_ligands_in_place() {
+    // trans-[PtCl2(PEt3)2] with one Cl swapped for Me: the phosphines stay trans, so the
+    // product is trans-[PtClMe(PEt3)2] (common practice)
+    let mut app = app_for("trans-PtCl2(PEt3)2", false);
+    let row = app
+        .slots()
+        .iter()
+        .position(|s| {
+            app.editor
+                .complex
+                .group(*s)
+                .is_some_and(|b| b.ligand.key == "Cl")
+        })
+        .expect("a Cl row");
+    press(&mut app, &"j".repeat(row));
+    press(&mut app, "/Me<enter><enter>");
+    let f = app.editor.complex.formula(false);
+    assert!(f.contains("Me") && f.starts_with("SP-4-"), "{f}");
+    let s = text(&screen(&app, 80, 24, COLOR));
+    assert!(s.contains("PEt3—Pt—PEt3"), "{s}");
+}

@@ -643,6 +643,49 @@ pub fn place(complex: &Complex, report: &Report) -> Result<Placed, String> {
     })
 }
 
+/// The name a fixed isomer is written with: the trade's short names when they single it out
+/// among all its isomers ("trans", "mer,trans", "fac"), else the IUPAC descriptor, so that
+/// the same isomer is always written the same way.
+pub fn label(placed: &Placed, i: usize) -> String {
+    let short = |k: usize| -> Vec<&'static str> {
+        let mut n = placed.frame.short_names(&placed.isomers[k]);
+        // fac/mer first, as the trade writes "mer,trans"
+        n.sort_by_key(|w| match *w {
+            "fac" | "mer" => 0,
+            "cis" | "trans" => 1,
+            _ => 2,
+        });
+        n
+    };
+    let mine = short(i);
+    if !mine.is_empty()
+        && (0..placed.isomers.len())
+            .filter(|&k| short(k) == mine)
+            .count()
+            == 1
+    {
+        return mine.join(",");
+    }
+    placed.descriptors.get(i).cloned().unwrap_or_default()
+}
+
+/// Write a prefix that fixes one isomer the one way `label` writes it ("SP-4-1-" and
+/// "trans-" are the same isomer of [PtCl2(NH3)2]); a prefix that fixes none or several is
+/// kept as typed.
+pub fn settle(complex: &mut Complex) {
+    if complex.stereo.is_none() || complex.metal_count() != 1 {
+        return;
+    }
+    let report = super::count::count(complex);
+    if let Ok(p) = place(complex, &report) {
+        if let [i] = p.chosen.as_slice() {
+            if p.isomers.len() > 1 && p.notes.iter().all(|n| !n.contains("does not fix")) {
+                complex.stereo = Some(label(&p, *i));
+            }
+        }
+    }
+}
+
 /// The count with the polyhedron and, where fixed, the isomer and positions filled in.
 pub fn counted(complex: &Complex) -> Report {
     let mut r = super::count::count(complex);
@@ -698,9 +741,24 @@ pub fn annotate(complex: &Complex, report: &mut Report) {
 /// repeat are written once with a count, so a ring over three positions takes one row.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Sketch {
-    /// The polyhedron and the isomer: "OC-6-22 fac", or "OC-6, 2 isomers".
+    /// The isomer ("OC-6-22 fac"), the polyhedron when it has one arrangement ("T-4"), or
+    /// how many isomers the formula leaves open.
     pub head: String,
+    /// Whether one arrangement is fixed (the rows are positions, not a list of isomers).
+    pub fixed: bool,
     pub rows: Vec<String>,
+}
+
+impl Sketch {
+    /// The rows in one line, tight: "Cl—Ir—CO · PPh3—Ir—PPh3".
+    pub fn joined(&self) -> String {
+        self.rows
+            .iter()
+            .map(|r| r.replace(" — ", "—"))
+            .collect::<Vec<_>>()
+            .join(" · ")
+            .replace(" · or ", ", ")
+    }
 }
 
 /// The sketch of a placed complex: the fixed isomer's positions, else the isomers it may be.
@@ -721,27 +779,70 @@ pub fn sketch(placed: &Placed, metal: &str) -> Sketch {
                 }
             })
             .collect();
+        let (n, all) = (placed.chosen.len(), placed.isomers.len());
+        let mut rows: Vec<String> = names.iter().take(6).map(|n| format!("or {n}")).collect();
+        if let Some(first) = rows.first_mut() {
+            *first = format!("one of {}", &first[3..]);
+        }
+        if n > 6 {
+            rows.push(format!("and {} more", n - 6));
+        }
         return Sketch {
-            head: format!(
-                "{} {}, {} of {} isomers possible",
-                poly.symbol,
-                poly.name,
-                placed.chosen.len(),
-                placed.isomers.len()
-            ),
-            rows: vec![names.join(" · ")],
+            fixed: false,
+            head: if n == all {
+                format!("{}: {n} isomers, none named", poly.symbol)
+            } else {
+                format!("{}: {n} of {all} isomers", poly.symbol)
+            },
+            rows,
         };
     };
     let label = |p: u8| f.seat_label(&iso.seats[p as usize]);
     let d = &placed.descriptors[placed.chosen[0]];
     let short = f.short_names(iso).join(",");
     let head = if placed.isomers.len() < 2 {
-        format!("{} {}", poly.symbol, poly.name)
+        poly.symbol.to_string()
     } else if short.is_empty() {
         d.clone()
     } else {
         format!("{d} {short}")
     };
+    Sketch {
+        head,
+        fixed: true,
+        rows: axes(poly, metal, &label),
+    }
+}
+
+/// The sketch of a counted complex from its report: the isomer and each ligand's positions
+/// (see `annotate`), or None when the report fixes no arrangement.
+pub fn sketch_of_report(m: &super::count::MetalReport) -> Option<Sketch> {
+    let poly = Polyhedron::shared(m.polyhedron?)?;
+    let mut at: Vec<String> = vec![String::new(); poly.positions()];
+    for c in &m.contributions {
+        for copy in c.positions.iter().flatten() {
+            for &p in copy {
+                let slot = at.get_mut(usize::from(p).checked_sub(1)?)?;
+                *slot = c.ligand.key.clone();
+            }
+        }
+    }
+    if at.iter().any(String::is_empty) {
+        return None;
+    }
+    let head = match (&m.isomer, m.stereoisomers) {
+        (Some(i), Some(n)) if n > 1 => format!("{i} (one of {n} isomers)"),
+        _ => poly.symbol.to_string(),
+    };
+    Some(Sketch {
+        head,
+        fixed: true,
+        rows: axes(poly, m.symbol, &|p| at[p as usize].clone()),
+    })
+}
+
+/// Rows that say what sits where: trans pairs as axes, the rest by the polyhedron's words.
+fn axes(poly: &Polyhedron, metal: &str, label: &dyn Fn(u8) -> String) -> Vec<String> {
     let axis = |a: u8, b: u8| format!("{} — {metal} — {}", label(a), label(b));
     let mut rows: Vec<String> = Vec::new();
     let mut on_axis = vec![false; poly.positions()];
@@ -750,12 +851,12 @@ pub fn sketch(placed: &Placed, metal: &str) -> Sketch {
             rows.push(format!("axial {}", axis(0, 1)));
             let ring: Vec<String> = (2..poly.positions() as u8).map(label).collect();
             rows.push(format!("equatorial {}", ring.join(", ")));
-            return Sketch { head, rows };
+            return rows;
         }
         "T-4" | "TP-3" => {
             let all: Vec<String> = (0..poly.positions() as u8).map(label).collect();
             rows.push(format!("around {metal}: {}", all.join(", ")));
-            return Sketch { head, rows };
+            return rows;
         }
         _ => {}
     }
@@ -781,9 +882,8 @@ pub fn sketch(placed: &Placed, metal: &str) -> Sketch {
             None => counted.push((r, 1)),
         }
     }
-    let rows = counted
+    counted
         .into_iter()
         .map(|(r, n)| if n > 1 { format!("{r} (x{n})") } else { r })
-        .collect();
-    Sketch { head, rows }
+        .collect()
 }

@@ -101,11 +101,20 @@ pub fn preview(
     before_report: &Report,
     edit: &Edit,
 ) -> Result<Preview, EditError> {
-    let (after, focus) = apply(before, edit)?;
+    let (mut after, focus) = apply(before, edit)?;
     let after_report = count(&after);
     if let Some(why) = after_report.impossible() {
         return Err(EditError::Impossible(why));
     }
+    // a named isomer stays named: the other ligands keep their positions
+    use super::steps::{carry, Carry};
+    after.stereo = match edit {
+        Edit::Swap { .. } => carry(before, before_report, &after, &after_report, Carry::Swap),
+        Edit::Add { .. } => carry(before, before_report, &after, &after_report, Carry::Add),
+        Edit::Remove { .. } => carry(before, before_report, &after, &after_report, Carry::Remove),
+        Edit::Charge(_) => before.stereo.clone(),
+        Edit::ChangeMode { .. } => None,
+    };
     let (leaving, entering) = match edit {
         Edit::Swap { slot, ligand, .. } => (
             before.group(*slot).map(|b| b.ligand.clone()),

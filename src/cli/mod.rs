@@ -488,7 +488,10 @@ fn plan(args: &PlanArgs, ascii: bool, data_dir: Option<&std::path::Path>) -> Out
     // no session is created for a planner that cannot open
     let typed = match formula {
         Some(f) => match chem::parse(f, &cat) {
-            Ok(c) => Some((c, f.clone())),
+            Ok(mut c) => {
+                chem::geometry::settle(&mut c);
+                Some((c, f.clone()))
+            }
             Err(e) => return rejected(diag::parse_error(&e)),
         },
         None => None,
@@ -699,6 +702,7 @@ fn step(args: &StepArgs, ascii: bool, data_dir: Option<&std::path::Path>) -> Out
         Ok(c) => c,
         Err(e) => return rejected(diag::parse_error(&e)),
     };
+    chem::geometry::settle(&mut complex);
     let mut log = match &args.session {
         None => None,
         Some(name) => {

@@ -83,6 +83,29 @@ fn report(out: &mut impl Write, input: &str, r: &Report, ascii: bool) -> io::Res
     };
     let flag = if r.spin_ambiguous { " [ambiguous]" } else { "" };
     writeln!(out, "  geometry: {}", r.geometry)?;
+    // where each ligand sits, when the isomer is known
+    if r.metals.len() == 1 {
+        if let Some(m) = r.metals.first() {
+            match crate::chem::geometry::sketch_of_report(m) {
+                Some(s) => {
+                    writeln!(out, "  positions: {}", s.head)?;
+                    for row in &s.rows {
+                        writeln!(out, "    {}", greek(row, ascii))?;
+                    }
+                }
+                None => {
+                    if let (Some(p), Some(n)) = (m.polyhedron, m.stereoisomers) {
+                        if n > 1 {
+                            writeln!(
+                                out,
+                                "  positions: {p}, {n} isomers; a prefix names one (nonet isomers lists them)"
+                            )?;
+                        }
+                    }
+                }
+            }
+        }
+    }
     writeln!(out, "  spin: {}{flag}", greek(&spin, ascii))?;
     writeln!(out, "        {}", greek(&r.spin_basis.to_string(), ascii))?;
     for n in &r.notes {

@@ -1292,7 +1292,8 @@ impl App {
                 let why = count(&c).impossible().unwrap_or_default();
                 self.notice(&why, true);
             }
-            Ok(c) => {
+            Ok(mut c) => {
+                crate::chem::geometry::settle(&mut c);
                 self.editor.row = 0;
                 self.editor.title = text.clone();
                 self.mode = Mode::Normal;

@@ -10,6 +10,7 @@ use super::app::{App, Focus, Mode};
 use super::ui::{block, marker, plain, plain_lines};
 use crate::chem::count::{MetalReport, Saturation};
 use crate::chem::edit::Place;
+use crate::chem::geometry;
 
 pub fn render(f: &mut Frame, app: &App, area: Rect, theme: &super::theme::Theme) {
     let focused = app.focus == Focus::Complex && app.mode == Mode::Normal;
@@ -20,16 +21,33 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, theme: &super::theme::Theme)
         return;
     }
     let t = theme;
-    let summary = summary_lines(app, t);
+    let sketch = sketch_of(app);
     let slots = app.slots();
-    let needed = 2 + slots.len().max(1) + summary.len();
+    let height = inner.height as usize;
+    let base = 2 + slots.len().max(1);
+    // the positions as rows when they fit, merging the count lines if that makes room; else
+    // fixed positions as one tight line, and a list of possible isomers not at all
+    let fits = |summary: &Vec<Line>, rows: usize| base + summary.len() + rows <= height;
+    let wide = summary_lines(app, t, sketch.as_ref(), false);
+    let tight = summary_lines(app, t, sketch.as_ref(), true);
+    let (summary, positions): (Vec<Line>, Vec<String>) = match &sketch {
+        Some(s) if fits(&wide, s.rows.len()) => (wide, s.rows.clone()),
+        Some(s) if fits(&tight, s.rows.len()) => (tight, s.rows.clone()),
+        Some(s) if s.fixed && !s.rows.is_empty() => (tight, vec![s.joined()]),
+        _ => (wide, Vec::new()),
+    };
+    let tail: Vec<Line> = positions
+        .iter()
+        .map(|r| Line::styled(plain(app, &format!("  {r}")), t.text()))
+        .collect();
+    let needed = base + summary.len() + tail.len();
     let mut top: Vec<Line> = Vec::new();
     // the current complex first; what the session started from below it, when there is room
     top.push(Line::styled(
         plain(app, &app.editor.complex.formula(app.ascii)),
         t.title(),
     ));
-    if (inner.height as usize) > needed {
+    if height > needed {
         top.push(Line::styled(
             plain(app, &format!("from {}", app.editor.title)),
             t.dim(),
@@ -42,9 +60,9 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, theme: &super::theme::Theme)
         ),
         t.heading(),
     ));
-    // rows get what the header and the summary leave
-    let room = (inner.height as usize)
-        .saturating_sub(top.len() + summary.len())
+    // rows get what the header, the summary and the positions leave
+    let room = height
+        .saturating_sub(top.len() + summary.len() + tail.len())
         .max(1);
     let many = app.editor.complex.metal_count() > 1;
     let first = app.editor.row.saturating_sub(room.saturating_sub(1));
@@ -99,7 +117,18 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, theme: &super::theme::Theme)
         top.push(Line::styled("  (no ligands: press a to add one)", t.dim()));
     }
     top.extend(summary);
+    top.extend(tail);
     f.render_widget(Paragraph::new(top), inner);
+}
+
+/// Where the ligands of the working complex sit, when nonet can lay it out.
+fn sketch_of(app: &App) -> Option<geometry::Sketch> {
+    let c = &app.editor.complex;
+    if c.metal_count() != 1 {
+        return None;
+    }
+    let placed = geometry::place(c, &app.editor.report).ok()?;
+    Some(geometry::sketch(&placed, c.sites[0].element.symbol))
 }
 
 fn own_len(app: &App, metal: usize) -> usize {
@@ -120,27 +149,47 @@ fn truncate(s: &str, n: usize) -> String {
     }
 }
 
-/// Totals, oxidation state, d count, saturation and spin of the first metal (and the cluster).
-fn summary_lines<'a>(app: &App, t: &super::theme::Theme) -> Vec<Line<'a>> {
+/// Totals, oxidation state, d count, saturation, spin and shape of the first metal (and the
+/// cluster); `tight` puts the count and the oxidation state on one line.
+fn summary_lines<'a>(
+    app: &App,
+    t: &super::theme::Theme,
+    sketch: Option<&geometry::Sketch>,
+    tight: bool,
+) -> Vec<Line<'a>> {
     let r = &app.editor.report;
     let mut out = Vec::new();
     let Some(m) = r.metals.first() else {
         return out;
     };
     let each = if r.metals.len() > 1 { " (1)" } else { "" };
-    out.push(Line::from(vec![
-        Span::styled(format!("{}{each} ", m.symbol), t.title()),
-        Span::raw(format!(
-            "{} e neutral = {} e ionic",
-            m.electron_count, m.ionic_electron_count
-        )),
-    ]));
-    out.push(Line::raw(format!(
-        "ox. state {} · d{} · CN {}",
-        signed(m),
-        m.d_electrons,
-        m.coordination_number
-    )));
+    if tight {
+        out.push(Line::from(vec![
+            Span::styled(format!("{}{each} ", m.symbol), t.title()),
+            Span::raw(format!(
+                "{} e = {} e ionic · {} · d{} · CN {}",
+                m.electron_count,
+                m.ionic_electron_count,
+                signed(m),
+                m.d_electrons,
+                m.coordination_number
+            )),
+        ]));
+    } else {
+        out.push(Line::from(vec![
+            Span::styled(format!("{}{each} ", m.symbol), t.title()),
+            Span::raw(format!(
+                "{} e neutral = {} e ionic",
+                m.electron_count, m.ionic_electron_count
+            )),
+        ]));
+        out.push(Line::raw(format!(
+            "ox. state {} · d{} · CN {}",
+            signed(m),
+            m.d_electrons,
+            m.coordination_number
+        )));
+    }
     let mut sat = saturation_line(m, t);
     sat.spans.push(Span::raw(plain(
         app,
@@ -174,7 +223,11 @@ fn summary_lines<'a>(app: &App, t: &super::theme::Theme) -> Vec<Line<'a>> {
             t.text()
         },
     ));
-    out.push(Line::styled(r.geometry.to_string(), t.dim()));
+    let shape = match sketch {
+        Some(s) => format!("{} · {}", s.head, r.geometry),
+        None => r.geometry.to_string(),
+    };
+    out.push(Line::styled(shape, t.dim()));
     plain_lines(app, out)
 }
 

@@ -39,6 +39,12 @@ pub fn render(f: &mut Frame, app: &App, area: Rect, t: &Theme) {
         None => vec![Line::styled("nothing to preview", t.dim())],
         Some(Err(why)) => {
             let mut l = vec![Line::styled(plain(app, why), t.warn())];
+            if why.contains("`isomerization ") {
+                l.push(Line::styled(
+                    "I previews an isomerization (n shows the next isomer), Enter commits it",
+                    t.dim(),
+                ));
+            }
             if app.editor.pending == Pending::Swap {
                 l.push(Line::raw(""));
                 l.push(Line::styled(
@@ -202,6 +208,21 @@ fn lines<'a>(app: &App, p: &Preview, t: &Theme) -> Vec<Line<'a>> {
         ),
     };
     out.push(row("spin", spin_text, spin_style, t));
+    // where the ligands end up, and what the step needed or chose about positions
+    if p.after.metal_count() == 1 {
+        if let Ok(placed) = crate::chem::geometry::place(&p.after, &p.after_report) {
+            let s = crate::chem::geometry::sketch(&placed, p.after.sites[0].element.symbol);
+            let text = if s.rows.is_empty() || !s.fixed {
+                s.head
+            } else {
+                format!("{}: {}", s.head, s.joined())
+            };
+            out.push(row("positions", text, t.text(), t));
+        }
+    }
+    for n in &p.step_notes {
+        out.push(row("note", n.clone(), t.dim(), t));
+    }
     // safety before sterics and mechanism: on a small screen it must not be the line cut off
     if let Some(l) = &p.entering {
         if !l.hazards.is_empty() {
@@ -273,9 +294,6 @@ fn lines<'a>(app: &App, p: &Preview, t: &Theme) -> Vec<Line<'a>> {
     }
     if let Some(m) = p.mechanism {
         out.push(row("mechanism", m.text().to_string(), t.text(), t));
-    }
-    for n in &p.step_notes {
-        out.push(row("note", n.clone(), t.dim(), t));
     }
     out
 }

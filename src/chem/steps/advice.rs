@@ -151,9 +151,12 @@ pub fn choices(c: &Complex, seed: &Step, lookup: &dyn LigandLookup) -> Vec<Step>
         }
         other => out.push(other.clone()),
     }
-    // keep those that go through, once each by product
+    // keep those that go through, once each by product; when none does, the first refused
+    // one stays, so the preview can say why (two groups trans, and the isomer that would do)
     let mut seen: Vec<String> = Vec::new();
-    out.into_iter()
+    let first = out.first().cloned();
+    let through: Vec<Step> = out
+        .into_iter()
         .filter(|s| match take(c, s, lookup) {
             Ok(o) => {
                 let key = o.after.formula.clone() + &o.equation_text();
@@ -166,7 +169,19 @@ pub fn choices(c: &Complex, seed: &Step, lookup: &dyn LigandLookup) -> Vec<Step>
             }
             Err(_) => false,
         })
-        .collect()
+        .collect();
+    match first {
+        Some(f)
+            if through.is_empty()
+                && matches!(
+                    seed,
+                    Step::ReductiveElimination(..) | Step::MigratoryInsertion { .. }
+                ) =>
+        {
+            vec![f]
+        }
+        _ => through,
+    }
 }
 
 /// The step a chemist would most likely take next on the ligand at `slot` (or, with none,
@@ -235,7 +250,10 @@ pub fn suggest(
                 into: String::new(),
                 regio: None,
             };
-            if let Some(first) = choices(c, &seed, lookup).into_iter().next() {
+            if let Some(first) = choices(c, &seed, lookup)
+                .into_iter()
+                .find(|s| take(c, s, lookup).is_ok())
+            {
                 return Some(first);
             }
         }

@@ -40,7 +40,7 @@ use super::frac::Frac;
 use super::species::Equation;
 pub use advice::{choices, suggest};
 use ctx::Ctx;
-pub use positions::Course;
+pub use positions::{carry, Carry, Course};
 
 /// Which way an alkene inserts: `1,2` puts the metal on the less substituted carbon, `2,1` on
 /// the more substituted one.

@@ -383,7 +383,7 @@ pub(super) fn follow(
     let stereo = match result.as_slice() {
         // a composition with one arrangement needs no descriptor
         _ if pp.isomers.len() < 2 => None,
-        [i] => Some(pp.descriptors[*i].clone()),
+        [i] => Some(geometry::label(&pp, *i)),
         [] => None,
         _ if fluxional => None,
         many => {
@@ -409,6 +409,37 @@ pub(super) fn follow(
         }
     };
     Ok((stereo, notes))
+}
+
+/// The isomer an edit leaves behind, when the start names one: a swapped ligand takes the
+/// old one's place, an added one the open site, and the rest stay where they were.
+pub fn carry(
+    start: &Complex,
+    before: &Report,
+    product: &Complex,
+    after: &Report,
+    kind: Carry,
+) -> Option<String> {
+    start.stereo.as_ref()?;
+    let step = match kind {
+        Carry::Swap => Step::Substitution {
+            leaving: String::new(),
+            entering: String::new(),
+        },
+        Carry::Add => Step::Association(String::new()),
+        Carry::Remove => Step::Dissociation(String::new()),
+    };
+    follow(&step, start, before, product, after, None)
+        .ok()
+        .and_then(|(stereo, _)| stereo)
+}
+
+/// What an edit did to the ligand set, for `carry`.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Carry {
+    Swap,
+    Add,
+    Remove,
 }
 
 /// Alkyl halides add trans by the SN2 path; everything else (H2, silanes, C-H, aryl and vinyl
@@ -461,7 +492,7 @@ pub(super) fn isomerization(
         ));
     }
     if let [i] = to.chosen.as_slice() {
-        product.stereo = Some(to.descriptors[*i].clone());
+        product.stereo = Some(geometry::label(&to, *i));
     }
     Ok(product)
 }

@@ -37,11 +37,7 @@ fn the_suzuki_cycle_as_svg() {
         .filter_map(|n| n.text())
         .collect();
     // the Pd(II) intermediates carry their isomer in front: cis from the addition of PhBr
-    for intermediate in [
-        "[Pd(PPh3)2]",
-        "SP-4-2-[Pd(PPh3)2Br(Ph)]",
-        "SP-4-2-[Pd(PPh3)2Ph2]",
-    ] {
+    for intermediate in ["[Pd(PPh3)2]", "cis-[Pd(PPh3)2Br(Ph)]", "cis-[Pd(PPh3)2Ph2]"] {
         assert!(
             texts.contains(&intermediate),
             "{intermediate} missing: {texts:?}"

@@ -129,6 +129,16 @@ fn agreement(start: &[(Kind, Kind)], product: &[(Kind, Kind)]) -> u32 {
     score
 }
 
+/// The kinds `a` holds more copies of than `b`, once per extra copy.
+fn surplus(a: &BTreeMap<Kind, u32>, b: &BTreeMap<Kind, u32>) -> Vec<Kind> {
+    a.iter()
+        .flat_map(|(k, &n)| {
+            let extra = n.saturating_sub(b.get(k).copied().unwrap_or(0));
+            std::iter::repeat_n(k.clone(), extra as usize)
+        })
+        .collect()
+}
+
 /// The step's effect on positions: refuses a step whose groups are trans, and returns the
 /// product's prefix (its descriptor, when one isomer results) with notes.
 pub(super) fn follow(
@@ -149,22 +159,7 @@ pub(super) fn follow(
         return Ok((None, notes));
     };
     let (ks, kp) = (kinds(start), kinds(product));
-    let mut removed: Vec<Kind> = Vec::new();
-    for (k, &n) in &ks {
-        let left = kp.get(k).copied().unwrap_or(0);
-        removed.extend(std::iter::repeat_n(
-            k.clone(),
-            n.saturating_sub(left) as usize,
-        ));
-    }
-    let mut added: Vec<Kind> = Vec::new();
-    for (k, &n) in &kp {
-        let had = ks.get(k).copied().unwrap_or(0);
-        added.extend(std::iter::repeat_n(
-            k.clone(),
-            n.saturating_sub(had) as usize,
-        ));
-    }
+    let (removed, added) = (surplus(&ks, &kp), surplus(&kp, &ks));
     let mut starts: Vec<usize> = sp.chosen.clone();
     // the cis requirement of eliminations and insertions
     let needs_cis = matches!(

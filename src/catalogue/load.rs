@@ -8,7 +8,7 @@ use serde::Deserialize;
 use toml::de::{DeTable, DeValue, ValueDeserializer};
 use toml::Spanned;
 
-use crate::chem::ligand::{BindingMode, CbcClass, FieldClass, LigandDef, Sourced};
+use crate::chem::ligand::{BindingMode, CbcClass, FieldClass, LigandDef, Ranked, Sourced};
 use crate::chem::molecule::Molecule;
 use crate::chem::species::SubstrateDef;
 
@@ -77,6 +77,14 @@ struct RawLigand {
     tep: Option<Spanned<f64>>,
     #[serde(default)]
     tep_source: Option<String>,
+    #[serde(default)]
+    trans_effect: Option<Spanned<i64>>,
+    #[serde(default)]
+    trans_effect_source: Option<String>,
+    #[serde(default)]
+    trans_influence: Option<Spanned<i64>>,
+    #[serde(default)]
+    trans_influence_source: Option<String>,
     #[serde(default)]
     hazards: Vec<String>,
     #[serde(default)]
@@ -385,6 +393,8 @@ fn in_range(
 pub const TEP_RANGE: std::ops::RangeInclusive<f64> = 1950.0..=2150.0;
 
 /// Cone angles, degrees: hydride's 75° is about the smallest; a cone is at most the sphere.
+/// Places in the trans effect and trans influence series.
+pub const RANK_RANGE: std::ops::RangeInclusive<u8> = 1..=10;
 pub const CONE_RANGE: std::ops::RangeInclusive<f64> = 30.0..=360.0;
 
 /// Mode counts that keep counting arithmetic within reason (η8-COT has 8 donors; μ6 bridges
@@ -451,6 +461,12 @@ fn convert(raw: RawLigand, origin: &str) -> Result<LigandDef, Problem> {
         TEP_RANGE,
         "cm-1",
         "Tolman's values run from about 2040 to 2111",
+    )?;
+    let trans_effect = ranked(raw.trans_effect, raw.trans_effect_source, "trans_effect")?;
+    let trans_influence = ranked(
+        raw.trans_influence,
+        raw.trans_influence_source,
+        "trans_influence",
     )?;
     if !raw.hazards.is_empty() && raw.hazard_source.as_deref().is_none_or(str::is_empty) {
         return Err((
@@ -529,6 +545,8 @@ fn convert(raw: RawLigand, origin: &str) -> Result<LigandDef, Problem> {
         pi_donor: raw.pi_donor,
         cone_angle,
         tep,
+        trans_effect,
+        trans_influence,
         hazards: raw.hazards,
         hazard_source: raw.hazard_source,
         notes: raw.notes,
@@ -541,6 +559,40 @@ fn convert(raw: RawLigand, origin: &str) -> Result<LigandDef, Problem> {
         def.set_structure(m);
     }
     Ok(def)
+}
+
+/// A place in an ordinal series (1-10, higher stronger), which needs its source.
+fn ranked(
+    value: Option<Spanned<i64>>,
+    source: Option<String>,
+    what: &str,
+) -> Result<Option<Ranked>, Problem> {
+    let Some(value) = value else {
+        return Ok(None);
+    };
+    let span = value.span();
+    let v = *value.get_ref();
+    let rank = u8::try_from(v)
+        .ok()
+        .filter(|r| RANK_RANGE.contains(r))
+        .ok_or_else(|| {
+            (
+                format!(
+                    "{what} = {v} is outside {}-{}; give the ligand's place in the series, \
+                     higher meaning stronger",
+                    RANK_RANGE.start(),
+                    RANK_RANGE.end()
+                ),
+                Some(span.clone()),
+            )
+        })?;
+    match source {
+        Some(s) if !s.trim().is_empty() => Ok(Some(Ranked { rank, source: s })),
+        _ => Err((
+            format!("{what} needs {what}_source (the published work, or \"from memory\")"),
+            Some(span),
+        )),
+    }
 }
 
 /// 1-based line and column of a byte offset.
@@ -610,5 +662,34 @@ class = "L"
 "#;
         let (_, errs) = parse_set("s.toml", text, "test");
         assert!(errs[0].message.contains("cone_angle_source"));
+    }
+
+    #[test]
+    fn a_place_in_the_trans_series_needs_its_source_and_range() {
+        let entry = |extra: &str| {
+            format!(
+                "[[ligand]]\nkey = \"Q\"\nname = \"q\"\nformula = \"Q\"\nfamily = \"phosphine\"\n\
+                 {extra}\n[[ligand.mode]]\nlabel = \"κ1\"\nclass = \"L\"\n"
+            )
+        };
+        let (_, errs) = parse_set("s.toml", &entry("trans_influence = 7"), "test");
+        assert!(
+            errs[0].message.contains("trans_influence_source"),
+            "{errs:?}"
+        );
+        assert_eq!(errs[0].line, 6);
+        let (_, errs) = parse_set(
+            "s.toml",
+            &entry("trans_effect = 11\ntrans_effect_source = \"x\""),
+            "test",
+        );
+        assert!(errs[0].message.contains("outside 1-10"), "{errs:?}");
+        let (ligs, errs) = parse_set(
+            "s.toml",
+            &entry("trans_effect = 9\ntrans_effect_source = \"from memory\""),
+            "test",
+        );
+        assert!(errs.is_empty(), "{errs:?}");
+        assert_eq!(ligs[0].trans_effect.as_ref().map(|r| r.rank), Some(9));
     }
 }

@@ -94,6 +94,8 @@ fn make(m: &Molecule, lookup: &dyn LigandLookup) -> LigandDef {
         pi_donor: false,
         cone_angle: None,
         tep: None,
+        trans_effect: None,
+        trans_influence: None,
         hazards: Vec::new(),
         hazard_source: None,
         notes: Some("made from its structure; not a catalogue entry".into()),

@@ -125,6 +125,14 @@ pub struct Sourced {
     pub source: String,
 }
 
+/// A ligand's place in a published ordinal series (trans effect, trans influence), higher
+/// meaning stronger, with the work it comes from.
+#[derive(Debug, Clone, PartialEq, Eq, Serialize)]
+pub struct Ranked {
+    pub rank: u8,
+    pub source: String,
+}
+
 /// One way a ligand binds: hapticity, denticity or bridging, with its CBC functions.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct BindingMode {
@@ -266,6 +274,10 @@ pub struct LigandDef {
     pub pi_donor: bool,
     pub cone_angle: Option<Sourced>,
     pub tep: Option<Sourced>,
+    /// Kinetic trans effect: how much it speeds the loss of the ligand opposite (1-10).
+    pub trans_effect: Option<Ranked>,
+    /// Ground-state trans influence: how much it lengthens the bond opposite (1-10).
+    pub trans_influence: Option<Ranked>,
     pub hazards: Vec<String>,
     pub hazard_source: Option<String>,
     pub notes: Option<String>,

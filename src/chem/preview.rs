@@ -108,13 +108,14 @@ pub fn preview(
     }
     // a named isomer stays named: the other ligands keep their positions
     use super::steps::{carry, Carry};
-    after.stereo = match edit {
+    let (stereo, step_notes) = match edit {
         Edit::Swap { .. } => carry(before, before_report, &after, &after_report, Carry::Swap),
         Edit::Add { .. } => carry(before, before_report, &after, &after_report, Carry::Add),
         Edit::Remove { .. } => carry(before, before_report, &after, &after_report, Carry::Remove),
-        Edit::Charge(_) => before.stereo.clone(),
-        Edit::ChangeMode { .. } => None,
+        Edit::Charge(_) => (before.stereo.clone(), Vec::new()),
+        Edit::ChangeMode { .. } => (None, Vec::new()),
     };
+    after.stereo = stereo;
     let (leaving, entering) = match edit {
         Edit::Swap { slot, ligand, .. } => (
             before.group(*slot).map(|b| b.ligand.clone()),
@@ -159,7 +160,7 @@ pub fn preview(
         mechanism,
         equation: None,
         equation_text: None,
-        step_notes: Vec::new(),
+        step_notes,
         entering_hazards: Vec::new(),
     })
 }

@@ -248,6 +248,12 @@ struct LigandLine<'a> {
     cone_angle_source: Option<&'a str>,
     tep_cm1: Option<f64>,
     tep_source: Option<&'a str>,
+    /// Places in the trans effect and trans influence series (1-10), when the catalogue
+    /// gives them.
+    trans_effect: Option<u8>,
+    trans_effect_source: Option<&'a str>,
+    trans_influence: Option<u8>,
+    trans_influence_source: Option<&'a str>,
     field: Option<&'a str>,
     pi_donor: bool,
     modes: Vec<ModeLine<'a>>,
@@ -271,6 +277,10 @@ pub fn write_ligand(out: &mut impl Write, l: &LigandDef) -> io::Result<()> {
         cone_angle_source: l.cone_angle.as_ref().map(|c| c.source.as_str()),
         tep_cm1: l.tep.as_ref().map(|c| c.value),
         tep_source: l.tep.as_ref().map(|c| c.source.as_str()),
+        trans_effect: l.trans_effect.as_ref().map(|r| r.rank),
+        trans_effect_source: l.trans_effect.as_ref().map(|r| r.source.as_str()),
+        trans_influence: l.trans_influence.as_ref().map(|r| r.rank),
+        trans_influence_source: l.trans_influence.as_ref().map(|r| r.source.as_str()),
         field: l.field.map(|f| f.word()),
         pi_donor: l.pi_donor,
         modes: l

@@ -293,6 +293,14 @@ fn ligand(out: &mut impl Write, l: &LigandDef, ascii: bool) -> io::Result<()> {
             t.value, t.source
         )?;
     }
+    for (what, r) in [
+        ("trans effect", &l.trans_effect),
+        ("trans influence", &l.trans_influence),
+    ] {
+        if let Some(r) = r {
+            writeln!(out, "    {what} {}/10 ({})", r.rank, r.source)?;
+        }
+    }
     if let Some(f) = l.field {
         writeln!(out, "    ligand field: {}", f.word())?;
     }

@@ -15,7 +15,7 @@ use crate::chem::complex::Complex;
 use crate::chem::count::Report;
 use crate::chem::geometry::{self, Placed};
 use crate::chem::isomers::Isomer;
-use crate::chem::trans::trans_effect;
+use crate::chem::trans::{new_weakened, trans_effect, weakened};
 
 /// How A-B adds: both ends on neighbouring positions (concerted: H2, H-SiR3, C-H, Ar-X) or
 /// on opposite ones (the SN2 path of alkyl halides).
@@ -403,19 +403,35 @@ pub(super) fn follow(
             }
         }
     };
+    // a strong trans-influence ligand newly opposite a weak one: that bond is long and labile
+    if let [i] = result.as_slice() {
+        let mut had: Vec<_> = starts
+            .first()
+            .map(|&s| weakened(&sp, &sp.isomers[s]))
+            .unwrap_or_default();
+        for &s in starts.iter().skip(1) {
+            let w = weakened(&sp, &sp.isomers[s]);
+            had.retain(|x| w.contains(x));
+        }
+        let metal = after.metals.first().map_or("M", |m| m.symbol);
+        notes.extend(new_weakened(&had, &weakened(&pp, &pp.isomers[*i]), metal));
+    }
     Ok((stereo, notes))
 }
 
-/// The isomer an edit leaves behind, when the start names one: a swapped ligand takes the
-/// old one's place, an added one the open site, and the rest stay where they were.
+/// The isomer an edit leaves behind, when the start names one, with what the move does to
+/// positions (which copy leaves, a ligand newly trans to a strong one): a swapped ligand
+/// takes the old one's place, an added one the open site, and the rest stay where they were.
 pub fn carry(
     start: &Complex,
     before: &Report,
     product: &Complex,
     after: &Report,
     kind: Carry,
-) -> Option<String> {
-    start.stereo.as_ref()?;
+) -> (Option<String>, Vec<String>) {
+    if start.stereo.is_none() {
+        return (None, Vec::new());
+    }
     let step = match kind {
         Carry::Swap => Step::Substitution {
             leaving: String::new(),
@@ -424,9 +440,7 @@ pub fn carry(
         Carry::Add => Step::Association(String::new()),
         Carry::Remove => Step::Dissociation(String::new()),
     };
-    follow(&step, start, before, product, after, None)
-        .ok()
-        .and_then(|(stereo, _)| stereo)
+    follow(&step, start, before, product, after, None).unwrap_or_default()
 }
 
 /// What an edit did to the ligand set, for `carry`.

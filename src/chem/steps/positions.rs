@@ -271,8 +271,8 @@ pub(super) fn follow(
             added[0].0,
             added[1].0,
             match c {
-                Course::Cis => " (concerted, as for H2, silanes, C-H bonds and aryl halides)",
-                Course::Trans => " (the SN2 path of alkyl halides)",
+                Course::Cis => " (concerted)",
+                Course::Trans => " (SN2 path)",
             }
         ));
     }

@@ -159,3 +159,42 @@ fn counts_report_positions_only_when_fixed() {
     let c = chem::parse("Mn2(CO)10", cat()).expect("parses");
     assert_eq!(geometry::counted(&c).metals[0].polyhedron, None);
 }
+
+#[test]
+fn a_chelate_spans_the_positions_its_bite_angle_reaches() {
+    // [RhH(CO)2(diphosphine)] trigonal bipyramids: a diphosphine of bite near 90° (dppe, dppm)
+    // spans an axial and an equatorial site, one near 120° (BISBI, βn about 113°) can span two
+    // equatorial sites (Casey et al., J. Am. Chem. Soc. 1992, 114, 5535; from memory)
+    let diequatorial = |f: &str| {
+        let p = placed(f);
+        assert_eq!(p.frame.poly.symbol, "TBPY-5", "{f}");
+        p.isomers
+            .iter()
+            .filter(|iso| {
+                (0..5u8).any(|a| {
+                    (a + 1..5).any(|b| {
+                        let (sa, sb) = (iso.seats[a as usize], iso.seats[b as usize]);
+                        p.frame.poly.roles[a as usize] == "equatorial"
+                            && p.frame.poly.roles[b as usize] == "equatorial"
+                            && sa.1.is_some()
+                            && sa.1 == sb.1
+                    })
+                })
+            })
+            .count()
+    };
+    assert_eq!(diequatorial("RhH(CO)2(dppe)"), 0);
+    assert_eq!(diequatorial("RhH(CO)2(dppm)"), 0);
+    assert!(diequatorial("RhH(CO)2(BISBI)") > 0);
+    assert_eq!(placed("RhH(CO)2(dppe)").isomers.len(), 3);
+    // no diphosphine of the catalogue reaches trans positions: Xantphos (βn about 111°, Kamer,
+    // van Leeuwen & Reek, Acc. Chem. Res. 2001) stays cis in square-planar Pd(II)
+    let p = placed("Pd(Xantphos)(Ph)Br");
+    for iso in p.isomers.iter() {
+        let ends: Vec<u8> = (0..4u8)
+            .filter(|&i| iso.seats[i as usize].1.is_some())
+            .collect();
+        assert_eq!(ends.len(), 2);
+        assert!(!p.frame.poly.is_trans(ends[0], ends[1]));
+    }
+}

@@ -78,6 +78,10 @@ struct RawLigand {
     #[serde(default)]
     tep_source: Option<String>,
     #[serde(default)]
+    bite_angle: Option<Spanned<f64>>,
+    #[serde(default)]
+    bite_angle_source: Option<String>,
+    #[serde(default)]
     trans_effect: Option<Spanned<i64>>,
     #[serde(default)]
     trans_effect_source: Option<String>,
@@ -393,6 +397,8 @@ fn in_range(
 pub const TEP_RANGE: std::ops::RangeInclusive<f64> = 1950.0..=2150.0;
 
 /// Cone angles, degrees: hydride's 75° is about the smallest; a cone is at most the sphere.
+/// Natural bite angles of chelates, degrees.
+pub const BITE_RANGE: std::ops::RangeInclusive<f64> = 50.0..=180.0;
 /// Places in the trans effect and trans influence series.
 pub const RANK_RANGE: std::ops::RangeInclusive<u8> = 1..=10;
 pub const CONE_RANGE: std::ops::RangeInclusive<f64> = 30.0..=360.0;
@@ -462,6 +468,14 @@ fn convert(raw: RawLigand, origin: &str) -> Result<LigandDef, Problem> {
         "cm-1",
         "Tolman's values run from about 2040 to 2111",
     )?;
+    let bite_angle = sourced(
+        raw.bite_angle,
+        raw.bite_angle_source,
+        "bite_angle",
+        BITE_RANGE,
+        "degrees",
+        "natural bite angles run from about 70 (dppm) to about 120, trans-spanning ones near 180",
+    )?;
     let trans_effect = ranked(raw.trans_effect, raw.trans_effect_source, "trans_effect")?;
     let trans_influence = ranked(
         raw.trans_influence,
@@ -525,6 +539,12 @@ fn convert(raw: RawLigand, origin: &str) -> Result<LigandDef, Problem> {
         }
         modes.push(mode);
     }
+    if bite_angle.is_some() && !modes.iter().any(|m| m.sites == 2) {
+        return Err((
+            "bite_angle is for chelates: give the ligand a mode that holds two sites (κ2)".into(),
+            Some(key_span),
+        ));
+    }
     let structure = match &raw.smiles {
         None => None,
         Some(text) => {
@@ -545,6 +565,7 @@ fn convert(raw: RawLigand, origin: &str) -> Result<LigandDef, Problem> {
         pi_donor: raw.pi_donor,
         cone_angle,
         tep,
+        bite_angle,
         trans_effect,
         trans_influence,
         hazards: raw.hazards,
@@ -691,5 +712,12 @@ class = "L"
         );
         assert!(errs.is_empty(), "{errs:?}");
         assert_eq!(ligs[0].trans_effect.as_ref().map(|r| r.rank), Some(9));
+        // a bite angle belongs to a chelate
+        let (_, errs) = parse_set(
+            "s.toml",
+            &entry("bite_angle = 85.0\nbite_angle_source = \"x\""),
+            "test",
+        );
+        assert!(errs[0].message.contains("chelates"), "{errs:?}");
     }
 }

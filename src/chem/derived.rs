@@ -94,6 +94,7 @@ fn make(m: &Molecule, lookup: &dyn LigandLookup) -> LigandDef {
         pi_donor: false,
         cone_angle: None,
         tep: None,
+        bite_angle: None,
         trans_effect: None,
         trans_influence: None,
         hazards: Vec::new(),

@@ -199,7 +199,10 @@ pub fn frame(complex: &Complex, report: &Report) -> Result<Frame, String> {
             let at = |i: usize| l.get(i).copied().unwrap_or('?');
             match shape {
                 Shape::Mono => Part::Mono(at(0)),
-                Shape::Chelate => Part::Chelate(at(0), at(1)),
+                Shape::Chelate => match ligands[*g].ligand.bite_angle.as_ref() {
+                    Some(b) => Part::Bite(at(0), at(1), b.value.round().clamp(1.0, 180.0) as u8),
+                    None => Part::Chelate(at(0), at(1)),
+                },
                 Shape::Mer => Part::Mer(at(0), at(1), at(2)),
                 Shape::Fac => Part::Fac(at(0), at(1), at(2)),
                 Shape::Square => Part::Square(at(0)),

@@ -15,6 +15,10 @@ pub enum Part {
     Mono(char),
     /// A chelate with its two donor ends (the same letter twice when symmetric).
     Chelate(char, char),
+    /// A chelate of known natural bite angle (degrees): it spans the pairs of positions whose
+    /// angle at the metal lies within `BITE_WINDOW` of it, so a narrow bite (dppe) keeps to
+    /// 90° pairs and a trans-spanning one reaches 180°.
+    Bite(char, char, u8),
     /// A tridentate ligand on a meridian (a pincer: ends, middle, end).
     Mer(char, char, char),
     /// A tridentate ligand on a face (a tripod, a scorpionate, an η5 or η6 ring).
@@ -27,7 +31,7 @@ impl Part {
     fn denticity(self) -> usize {
         match self {
             Part::Mono(_) => 1,
-            Part::Chelate(..) => 2,
+            Part::Chelate(..) | Part::Bite(..) => 2,
             Part::Mer(..) | Part::Fac(..) => 3,
             Part::Square(_) => 4,
         }
@@ -51,6 +55,12 @@ impl Part {
             Part::Mono(c) => (0..poly.positions() as u8).for_each(|p| push(vec![(p, c)])),
             Part::Chelate(a, b) => {
                 for &(p, q) in &poly.spans {
+                    push(vec![(p, a), (q, b)]);
+                    push(vec![(q, a), (p, b)]);
+                }
+            }
+            Part::Bite(a, b, angle) => {
+                for (p, q) in bite_spans(poly, angle) {
                     push(vec![(p, a), (q, b)]);
                     push(vec![(q, a), (p, b)]);
                 }
@@ -81,6 +91,33 @@ impl Part {
                 }
             }
         }
+        out
+    }
+}
+
+/// How far from its natural bite angle a chelate is taken to flex, in degrees: the
+/// flexibility ranges of common diphosphines span some 20-40° about βn (Dierkes & van
+/// Leeuwen, J. Chem. Soc., Dalton Trans. 1999, 1519; from memory).
+pub const BITE_WINDOW: f64 = 30.0;
+
+/// The pairs of positions a chelate of natural bite angle `angle` spans; the polyhedron's
+/// usual pairs when none is within reach (a three-coordinate fragment).
+pub fn bite_spans(poly: &Polyhedron, angle: u8) -> Vec<(u8, u8)> {
+    let n = poly.positions() as u8;
+    let mut out = Vec::new();
+    for p in 0..n {
+        for q in p + 1..n {
+            let (u, v) = (poly.coords[p as usize], poly.coords[q as usize]);
+            let dot: f64 = (0..3).map(|i| u[i] * v[i]).sum();
+            let at = dot.clamp(-1.0, 1.0).acos().to_degrees();
+            if (at - f64::from(angle)).abs() <= BITE_WINDOW {
+                out.push((p, q));
+            }
+        }
+    }
+    if out.is_empty() {
+        poly.spans.clone()
+    } else {
         out
     }
 }

@@ -274,6 +274,8 @@ pub struct LigandDef {
     pub pi_donor: bool,
     pub cone_angle: Option<Sourced>,
     pub tep: Option<Sourced>,
+    /// Natural bite angle of a chelate, degrees: which pairs of positions it spans.
+    pub bite_angle: Option<Sourced>,
     /// Kinetic trans effect: how much it speeds the loss of the ligand opposite (1-10).
     pub trans_effect: Option<Ranked>,
     /// Ground-state trans influence: how much it lengthens the bond opposite (1-10).

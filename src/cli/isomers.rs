@@ -146,7 +146,7 @@ fn textbook(args: &IsomersArgs, ascii: bool) -> Outcome {
         .iter()
         .map(|p| match p {
             isomers::Part::Mono(_) => 1,
-            isomers::Part::Chelate(..) => 2,
+            isomers::Part::Chelate(..) | isomers::Part::Bite(..) => 2,
             isomers::Part::Mer(..) | isomers::Part::Fac(..) => 3,
             isomers::Part::Square(_) => 4,
         })
@@ -188,7 +188,7 @@ fn textbook(args: &IsomersArgs, ascii: bool) -> Outcome {
         .iter()
         .flat_map(|p| match *p {
             isomers::Part::Mono(c) | isomers::Part::Square(c) => vec![c],
-            isomers::Part::Chelate(a, b) => vec![a, b],
+            isomers::Part::Chelate(a, b) | isomers::Part::Bite(a, b, _) => vec![a, b],
             isomers::Part::Mer(a, b, c) | isomers::Part::Fac(a, b, c) => vec![a, b, c],
         })
         .collect();

@@ -248,6 +248,9 @@ struct LigandLine<'a> {
     cone_angle_source: Option<&'a str>,
     tep_cm1: Option<f64>,
     tep_source: Option<&'a str>,
+    /// Natural bite angle of a chelate, degrees.
+    bite_angle_deg: Option<f64>,
+    bite_angle_source: Option<&'a str>,
     /// Places in the trans effect and trans influence series (1-10), when the catalogue
     /// gives them.
     trans_effect: Option<u8>,
@@ -277,6 +280,8 @@ pub fn write_ligand(out: &mut impl Write, l: &LigandDef) -> io::Result<()> {
         cone_angle_source: l.cone_angle.as_ref().map(|c| c.source.as_str()),
         tep_cm1: l.tep.as_ref().map(|c| c.value),
         tep_source: l.tep.as_ref().map(|c| c.source.as_str()),
+        bite_angle_deg: l.bite_angle.as_ref().map(|b| b.value),
+        bite_angle_source: l.bite_angle.as_ref().map(|b| b.source.as_str()),
         trans_effect: l.trans_effect.as_ref().map(|r| r.rank),
         trans_effect_source: l.trans_effect.as_ref().map(|r| r.source.as_str()),
         trans_influence: l.trans_influence.as_ref().map(|r| r.rank),

@@ -293,6 +293,15 @@ fn ligand(out: &mut impl Write, l: &LigandDef, ascii: bool) -> io::Result<()> {
             t.value, t.source
         )?;
     }
+    if let Some(b) = &l.bite_angle {
+        writeln!(
+            out,
+            "    natural bite angle {}{} ({})",
+            b.value,
+            if ascii { " deg" } else { "°" },
+            b.source
+        )?;
+    }
     for (what, r) in [
         ("trans effect", &l.trans_effect),
         ("trans influence", &l.trans_influence),

@@ -125,6 +125,10 @@ fn a_step_that_puts_hydride_opposite_chloride_says_so() {
     // MeI adds trans, and iodide lands opposite the methyl
     let n = notes("trans-IrCl(CO)(PPh3)2", "oxidative-addition MeI");
     assert!(n.iter().any(|x| x.starts_with("I trans to Me")), "{n:?}");
+    // an enantiomeric pair of products has the pair alike: Pt(II) to Pt(IV) by the SN2 path
+    // (Crabtree 2014, §6.4)
+    let n = notes("cis-PtMeCl(PPh3)2", "oxidative-addition MeI");
+    assert!(n.iter().any(|x| x.starts_with("I trans to Me")), "{n:?}");
     // the same pair already in the start is no news
     let n = notes("trans-PtHCl(PEt3)2", "association CO");
     assert!(!n.iter().any(|x| x.contains("trans influence")), "{n:?}");

@@ -403,19 +403,22 @@ pub(super) fn follow(
             }
         }
     };
-    // a strong trans-influence ligand newly opposite a weak one: that bond is long and labile
-    if let [i] = result.as_slice() {
-        let mut had: Vec<_> = starts
-            .first()
-            .map(|&s| weakened(&sp, &sp.isomers[s]))
-            .unwrap_or_default();
-        for &s in starts.iter().skip(1) {
-            let w = weakened(&sp, &sp.isomers[s]);
-            had.retain(|x| w.contains(x));
+    // a strong trans-influence ligand newly opposite a weak one, in every isomer the step may
+    // give (an enantiomeric pair alike): that bond is long and labile
+    let common = |p: &Placed, among: &[usize]| {
+        let mut all = among.iter().map(|&i| weakened(p, &p.isomers[i]));
+        let mut out = all.next().unwrap_or_default();
+        for w in all {
+            out.retain(|x| w.contains(x));
         }
-        let metal = after.metals.first().map_or("M", |m| m.symbol);
-        notes.extend(new_weakened(&had, &weakened(&pp, &pp.isomers[*i]), metal));
-    }
+        out
+    };
+    let metal = after.metals.first().map_or("M", |m| m.symbol);
+    notes.extend(new_weakened(
+        &common(&sp, &starts),
+        &common(&pp, &result),
+        metal,
+    ));
     Ok((stereo, notes))
 }
 

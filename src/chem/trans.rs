@@ -62,12 +62,6 @@ pub fn trans_influence(l: &LigandDef) -> u8 {
     }
 }
 
-/// Whether the ligand labilizes the one opposite strongly (σ donors and π acceptors at the
-/// top of the series: H, alkyls, phosphines, CO and alkenes).
-pub fn strong(l: &LigandDef) -> bool {
-    trans_effect(l) >= 8
-}
-
 /// A ligand held weakly because a strong trans-influence ligand sits opposite.
 #[derive(Debug, Clone, PartialEq, Eq)]
 pub struct Weakened {

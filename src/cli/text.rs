@@ -296,7 +296,7 @@ fn ligand(out: &mut impl Write, l: &LigandDef, ascii: bool) -> io::Result<()> {
     if let Some(b) = &l.bite_angle {
         writeln!(
             out,
-            "    natural bite angle {}{} ({})",
+            "    bite angle {}{} ({})",
             b.value,
             if ascii { " deg" } else { "°" },
             b.source

@@ -277,30 +277,16 @@ fn ligand(out: &mut impl Write, l: &LigandDef, ascii: bool) -> io::Result<()> {
         })
         .collect();
     writeln!(out, "    modes: {}", modes.join("; "))?;
-    if let Some(c) = &l.cone_angle {
-        writeln!(
-            out,
-            "    cone angle {}{} ({})",
-            c.value,
-            if ascii { " deg" } else { "°" },
-            c.source
-        )?;
-    }
-    if let Some(t) = &l.tep {
-        writeln!(
-            out,
-            "    electronic parameter {} cm-1 ({})",
-            t.value, t.source
-        )?;
-    }
-    if let Some(b) = &l.bite_angle {
-        writeln!(
-            out,
-            "    bite angle {}{} ({})",
-            b.value,
-            if ascii { " deg" } else { "°" },
-            b.source
-        )?;
+    let degrees = if ascii { " deg" } else { "°" };
+    let numbers = [
+        ("cone angle", &l.cone_angle, degrees),
+        ("electronic parameter", &l.tep, " cm-1"),
+        ("bite angle", &l.bite_angle, degrees),
+    ];
+    for (what, number, unit) in numbers {
+        if let Some(n) = number {
+            writeln!(out, "    {what} {}{unit} ({})", n.value, n.source)?;
+        }
     }
     for (what, r) in [
         ("trans effect", &l.trans_effect),

@@ -249,3 +249,20 @@ proptest! {
         }
     }
 }
+
+#[test]
+fn groups_written_with_lower_case_prefixes_read_inside_condensed_groups() {
+    // butanoyl written as papers do: C(O)nPr = C(O)CH2CH2CH3, and pivaloyl C(O)tBu =
+    // C(O)C(CH3)3 (n-, i- and t- prefixed alkyl abbreviations: common practice)
+    assert_eq!(
+        canon("Rh(CO)(PPh3)2(C(O)nPr)"),
+        canon("Rh(CO)(PPh3)2(C(O)CH2CH2CH3)")
+    );
+    assert_eq!(
+        canon("Rh(CO)(PPh3)2(C(O)tBu)"),
+        canon("Rh(CO)(PPh3)2(C(O)C(CH3)3)")
+    );
+    // a lower-case word that is no group stays an error, with its name
+    let e = parse("Rh(CO)(PPh3)2(C(O)xyz)", cat()).expect_err("no such group");
+    assert!(e.render().contains("xyz"), "{}", e.render());
+}

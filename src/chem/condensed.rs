@@ -160,7 +160,8 @@ impl Reader<'_> {
                     }
                     return self.err(*pos, "unmatched ')'");
                 }
-                b'A'..=b'Z' => out.push(self.unit(pos)?),
+                // an element, or a catalogue group (nPr, iPr and tBu start in lower case)
+                b'A'..=b'Z' | b'a'..=b'z' => out.push(self.unit(pos)?),
                 _ => return self.err(*pos, "unexpected character"),
             }
         }

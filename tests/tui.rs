@@ -19,19 +19,6 @@ fn app_for(formula: &str, ascii: bool) -> App {
     App::new(cat, c, "test: planning session".into(), ascii)
 }
 
-/// The working pane's row of the first ligand with this key.
-fn row_of(app: &App, key: &str) -> usize {
-    app.slots()
-        .iter()
-        .position(|s| {
-            app.editor
-                .complex
-                .group(*s)
-                .is_some_and(|b| b.ligand.key == key)
-        })
-        .unwrap_or_else(|| panic!("no {key} row"))
-}
-
 fn demo() -> App {
     app_for(nonet::tui::DEMO_FORMULA, false)
 }
@@ -152,7 +139,7 @@ fn add_remove_mode_and_charge_are_previewed_then_committed() {
     let count = |app: &App| app.editor.report.metals[0].electron_count.as_int();
     assert_eq!(count(&app), Some(18));
     // ring slip of the selected Cp: preview first, Enter commits
-    let cp_row = row_of(&app, "Cp");
+    let cp_row = common::keys::row_of(&app, "Cp");
     app.editor.row = cp_row;
     press(&mut app, "m");
     let preview = app
@@ -172,7 +159,7 @@ fn add_remove_mode_and_charge_are_previewed_then_committed() {
     press(&mut app, "/PMe3<esc>a<enter>");
     assert_eq!(count(&app), Some(18));
     // take a CO off, then oxidize by one electron
-    let co_row = row_of(&app, "CO");
+    let co_row = common::keys::row_of(&app, "CO");
     app.editor.row = co_row;
     press(&mut app, "x<enter>");
     assert_eq!(count(&app), Some(16));
@@ -295,7 +282,7 @@ fn snapshot_swap_that_changes_saturation() {
     // changes the count: the 16-e square-planar complex gains 2 e when Cl (X) goes for an
     // η3-allyl (LX)
     let mut app = app_for("IrCl(CO)(PPh3)2", false);
-    let cl = row_of(&app, "Cl");
+    let cl = common::keys::row_of(&app, "Cl");
     app.editor.row = cl;
     press(&mut app, "/allyl");
     insta::assert_snapshot!("swap_saturation_80x24", text(&screen(&app, 80, 24, COLOR)));
@@ -388,7 +375,7 @@ fn a_swap_keeps_the_other_ligands_in_place() {
     // trans-[PtCl2(PEt3)2] with one Cl swapped for Me: the phosphines stay trans, so the
     // product is trans-[PtClMe(PEt3)2] (common practice)
     let mut app = app_for("trans-PtCl2(PEt3)2", false);
-    let row = row_of(&app, "Cl");
+    let row = common::keys::row_of(&app, "Cl");
     press(&mut app, &"j".repeat(row));
     press(&mut app, "/Me<enter><enter>");
     let f = app.editor.complex.formula(false);

@@ -129,6 +129,10 @@ fn a_step_that_puts_hydride_opposite_chloride_says_so() {
     // (Crabtree 2014, §6.4)
     let n = notes("cis-PtMeCl(PPh3)2", "oxidative-addition MeI");
     assert!(n.iter().any(|x| x.starts_with("I trans to Me")), "{n:?}");
+    // aryl bromide on Pd(0): Br lands trans to PPh3, which ranks below the σ-carbon and
+    // hydride head of the series (Appleton, Clark & Manzer 1973): no note
+    let n = notes("Pd(PPh3)2", "oxidative-addition PhBr");
+    assert!(!n.iter().any(|x| x.contains("trans influence")), "{n:?}");
     // the same pair already in the start is no news
     let n = notes("trans-PtHCl(PEt3)2", "association CO");
     assert!(!n.iter().any(|x| x.contains("trans influence")), "{n:?}");

@@ -15,9 +15,10 @@ use super::geometry::Placed;
 use super::isomers::Isomer;
 use super::ligand::LigandDef;
 
-/// From this trans influence up a ligand weakens the bond opposite markedly (σ-bonded Si, B,
-/// C and H, carbenes, phosphines).
-pub const STRONG_INFLUENCE: u8 = 7;
+/// From this trans influence up a ligand weakens the bond opposite markedly: the σ-bonded Si,
+/// B, C and H at the head of the series, and carbenes. Phosphines (7) sit just below, so the
+/// ubiquitous phosphine trans to halide raises no note.
+pub const STRONG_INFLUENCE: u8 = 8;
 /// Up to this trans influence a ligand is held weakly opposite a strong one (halides, N and O
 /// donors, weakly bound anions and solvents).
 pub const WEAK_INFLUENCE: u8 = 4;
